@@ -1,0 +1,28 @@
+/**
+ * Preload (runs sandboxed, before the renderer): exposes the minimal {@link LagbenchApi} as
+ * `window.lagbench` through contextBridge. No Node, no raw ipcRenderer reaches the page.
+ */
+import { contextBridge, ipcRenderer } from 'electron';
+import { CHANNELS, MENU_EVENT_CHANNEL, isMenuEvent, type LagbenchApi, type MenuEvent } from './ipc';
+
+const api: LagbenchApi = {
+  platform: 'desktop',
+  openLogs: () => ipcRenderer.invoke(CHANNELS.openLogs),
+  readLogs: (paths) => ipcRenderer.invoke(CHANNELS.readLogs, paths),
+  openWork: () => ipcRenderer.invoke(CHANNELS.openWork),
+  saveWork: (suggestedName, json) => ipcRenderer.invoke(CHANNELS.saveWork, suggestedName, json),
+  saveReport: (suggestedName, html) => ipcRenderer.invoke(CHANNELS.saveReport, suggestedName, html),
+  listRecent: () => ipcRenderer.invoke(CHANNELS.listRecent),
+  clearRecent: () => ipcRenderer.invoke(CHANNELS.clearRecent),
+  onMenu(listener: (event: MenuEvent) => void) {
+    const wrapped = (_e: unknown, payload: unknown): void => {
+      if (isMenuEvent(payload)) listener(payload);
+    };
+    ipcRenderer.on(MENU_EVENT_CHANNEL, wrapped);
+    return () => {
+      ipcRenderer.removeListener(MENU_EVENT_CHANNEL, wrapped);
+    };
+  },
+};
+
+contextBridge.exposeInMainWorld('lagbench', api);
