@@ -1,0 +1,111 @@
+import { describe, expect, it } from 'vitest';
+import { readFileSync, readdirSync } from 'node:fs';
+import { InputError } from '../../../src/core/errors';
+import { parseJsonLocated } from '../../../src/core/qc/json-locate';
+import { parseQcSpec } from '../../../src/core/qc/spec';
+
+const minimal = (limits: string, extra = ''): string => `{
+  "lagbench_qc_spec": 1,
+  "design": { "name": "M2" },
+  "test": { "setup": "bench 1", "program": "steps" },
+  "limits": ${limits}${extra}
+}`;
+
+function errorOf(fn: () => unknown): InputError {
+  try {
+    fn();
+  } catch (e) {
+    if (e instanceof InputError) return e;
+    throw e;
+  }
+  throw new Error('expected an InputError');
+}
+
+describe('parseJsonLocated', () => {
+  it('parseJsonLocated(trailing comma) throws at the line:column of the closing brace', () => {
+    const e = errorOf(() => parseJsonLocated('{\n  "a": 1,\n}', 'x.json'));
+    expect(e.code).toBe('json-syntax');
+    expect(e.location).toEqual({ file: 'x.json', line: 3, column: 1 });
+  });
+
+  it('parseJsonLocated(duplicate key) is rejected at the second key', () => {
+    const e = errorOf(() => parseJsonLocated('{"a": 1,\n "a": 2}'));
+    expect(e.location).toMatchObject({ line: 2, column: 2 });
+    expect(e.problem).toMatch(/twice/);
+  });
+
+  it('parseJsonLocated locates nested values and agrees with JSON.parse on the value', () => {
+    const text = '{\n "x": [1, {"y": -2.5e-3}],\n "s": "a\\u00e9\\n"\n}';
+    const doc = parseJsonLocated(text);
+    // Reference: the platform JSON parser (ECMA-262 JSON.parse).
+    expect(doc.value).toEqual(JSON.parse(text));
+    // Expected column counted from the text itself (1-based).
+    expect(doc.locate(['x', 1, 'y'])).toEqual({ line: 2, column: text.split('\n')[1]!.indexOf('-2.5') + 1 });
+    expect(doc.locate(['s'])).toEqual({ line: 3, column: 7 });
+  });
+
+  it('parseJsonLocated rejects what JSON.parse rejects (leading zeros, single quotes, NaN)', () => {
+    for (const bad of ['{"a": 01}', "{'a': 1}", '{"a": NaN}', '[1 2]', '"open']) {
+      expect(() => JSON.parse(bad)).toThrow();
+      expect(() => parseJsonLocated(bad)).toThrow(InputError);
+    }
+  });
+});
+
+describe('parseQcSpec', () => {
+  it('parseQcSpec(every example in qc-specs/) validates', () => {
+    const files = readdirSync('qc-specs').filter((f) => f.endsWith('.json'));
+    expect(files.length).toBeGreaterThan(0);
+    for (const f of files) expect(() => parseQcSpec(readFileSync(`qc-specs/${f}`, 'utf8'), f)).not.toThrow();
+  });
+
+  it('parseQcSpec(nominal ± %) gives limits nominal·(1 ∓ tol/100) in SI', () => {
+    const spec = parseQcSpec(minimal('{ "resistance": { "unit": "Pa_s_per_m3", "nominal": 2.4e13, "tolerance_percent": 10 } }'));
+    const r = spec.limits[0];
+    // Derivation: 2.4e13 × 0.9 = 2.16e13, × 1.1 = 2.64e13.
+    expect(r?.lowerSi).toBeCloseTo(2.16e13, -6);
+    expect(r?.upperSi).toBeCloseTo(2.64e13, -6);
+    expect(spec.inconclusiveCountsAs).toBe('inconclusive');
+    expect(spec.fitQuality.requireConverged).toBe(true);
+  });
+
+  it('parseQcSpec converts spec units to SI (physics.md §5: 1 µL/mbar = 1e-11 m³/Pa; 1 mbar/(µL/min) = 6e12 Pa·s/m³)', () => {
+    const spec = parseQcSpec(minimal('{ "compliance": { "unit": "uL_per_mbar", "max": 2 }, "trapped_air": { "unit": "uL", "max": 0.5 }, "resistance": { "unit": "mbar_per_uL_per_min", "min": 1 } }'));
+    const by = Object.fromEntries(spec.limits.map((l) => [l.quantity, l]));
+    expect(by.compliance?.upperSi).toBeCloseTo(2e-11, 24);
+    expect(by.trapped_air?.upperSi).toBeCloseTo(5e-10, 22);
+    // 1 mbar/(µL/min) = 100 Pa / (1e-9 m³ / 60 s) = 6e12 Pa·s/m³ (from the unit definitions).
+    expect(by.resistance?.lowerSi).toBeCloseTo(6e12, 0);
+  });
+
+  it('parseQcSpec(unknown unit) names the path and the line:column of the value, and the allowed units', () => {
+    const text = minimal('{\n    "trapped_air": { "unit": "gallons", "max": 1 }\n  }');
+    const e = errorOf(() => parseQcSpec(text, 'spec.json'));
+    expect(e.code).toBe('qc-spec-invalid');
+    expect(e.location).toEqual({ file: 'spec.json', line: 6, column: 30 });
+    expect(e.message).toMatch(/limits\.trapped_air\.unit/);
+    expect(e.message).toMatch(/uL/);
+  });
+
+  it('parseQcSpec lists every problem, each located', () => {
+    const text = minimal('{ "tau": { "unit": "s", "min": 5, "max": 2 } }', ',\n  "inconclusive_counts_as": "maybe",\n  "colour": "red"');
+    const e = errorOf(() => parseQcSpec(text, 's.json'));
+    const issues = (e as InputError & { issues: { path: string; line: number }[] }).issues;
+    expect(issues.map((i) => i.path).sort()).toEqual(['colour', 'inconclusive_counts_as', 'limits.tau.max']);
+    expect(issues.find((i) => i.path === 'colour')?.line).toBe(7);
+    expect(e.message).toMatch(/2 more problem/);
+  });
+
+  it('parseQcSpec rejects min/max mixed with nominal, missing tolerance, tolerance ≥ 100, text numbers', () => {
+    expect(() => parseQcSpec(minimal('{ "resistance": { "unit": "Pa_s_per_m3", "nominal": 1, "tolerance_percent": 5, "max": 2 } }'))).toThrow(/mixes/);
+    expect(() => parseQcSpec(minimal('{ "resistance": { "unit": "Pa_s_per_m3", "nominal": 1 } }'))).toThrow(/needs both/);
+    expect(() => parseQcSpec(minimal('{ "resistance": { "unit": "Pa_s_per_m3", "nominal": 1, "tolerance_percent": 100 } }'))).toThrow(/between 0 and 100/);
+    expect(() => parseQcSpec(minimal('{ "t95": { "unit": "s", "max": "20" } }'))).toThrow(/must be a number/);
+    expect(() => parseQcSpec(minimal('{}'))).toThrow(/empty/);
+  });
+
+  it('parseQcSpec(bad chip_id_from regex, unknown fit flag) is rejected with the reason', () => {
+    expect(() => parseQcSpec(minimal('{ "t95": { "unit": "s", "max": 20 } }', ',\n "chip_id_from": "filename:(["'))).toThrow(/invalid regular expression/);
+    expect(() => parseQcSpec(minimal('{ "t95": { "unit": "s", "max": 20 } }', ',\n "fit_quality": { "reject_flags": ["wobbly"] }'))).toThrow(/Unknown fit flag/);
+  });
+});
