@@ -7,3 +7,4 @@ export { parseJsonLocated, formatJsonPath, type JsonPath, type LocatedJson } fro
 export * from './verdict';
 export * from './lot-stats';
 export * from './control-chart';
+export * from './lot-summary';

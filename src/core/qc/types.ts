@@ -100,3 +100,24 @@ export interface ChipEvaluation {
   /** The decision rule in words (shown in every report). */
   rule: string;
 }
+
+/** A stored QC record as read back (io/qc-store.ts) and shown in history and lot reports. */
+export interface QcRecord {
+  id: number;
+  chipId: string;
+  lot: string | null;
+  operator: string | null;
+  /** UTC ISO 8601 time of the record. */
+  recordedAt: string;
+  specSha256: string;
+  specDesign: string;
+  softwareVersion: string;
+  settings: Record<string, unknown>;
+  inputs: { path: string; sha256: string }[];
+  verdict: Verdict;
+  disposition: Disposition;
+  rule: string;
+  results: CheckResult[];
+  /** Measured quantities, SI (also those without a limit). */
+  quantities: Partial<Record<QcQuantity, MeasuredValue>>;
+}
