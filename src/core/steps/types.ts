@@ -1,4 +1,5 @@
 /** Contract of step detection (src/core/steps): shared by analysis, physics and the UI. */
+import type { Warning } from '../errors';
 import type { Quantity } from '../recording/types';
 
 export interface Step {
@@ -19,6 +20,45 @@ export interface Step {
   windowEndS: number;
   /** Where the step came from. */
   origin: 'drive' | 'response' | 'user';
+  /**
+   * How the level changed (detected steps only): 'abrupt' = within a few samples (a commanded
+   * setpoint), 'gradual' = a settling curve (the onset is then the last sample still at the old level).
+   */
+  shape?: StepShape;
+}
+
+export type StepShape = 'abrupt' | 'gradual';
+
+/** How the fluid is driven: a pump imposes the flow, or a regulator imposes the pressure. */
+export type Setup = 'flow-driven' | 'pressure-driven';
+
+/**
+ * A change of level that is not a step: a (near) linear ramp, e.g. a ramp programme of the
+ * pressure controller. Reported so the user sees it, never fitted as a step response.
+ */
+export interface Ramp {
+  /** Start and end on the recording's time base (s). */
+  startS: number;
+  endS: number;
+  /** Level before and after, SI. */
+  before: number;
+  after: number;
+}
+
+/** Everything step detection found, with what it assumed. */
+export interface StepDetection {
+  steps: Step[];
+  ramps: Ramp[];
+  /** Channel searched (null for a user step list). */
+  channel: string | null;
+  quantity: Quantity;
+  origin: Step['origin'];
+  /** Noise σ of the searched channel, SI (MAD of first differences; 0 for a clean setpoint). */
+  noiseSigma: number;
+  /** Step size threshold and dwell actually used (defaults resolved). */
+  minStepSize: number;
+  minDwellS: number;
+  warnings: Warning[];
 }
 
 export interface StepDetectionOptions {
@@ -28,4 +68,8 @@ export interface StepDetectionOptions {
   minDwellS?: number;
   /** Channel to detect on; default: a setpoint channel, else the drive, else the response. */
   channel?: string;
+  /** Which setup the log comes from; picks the drive channel when several exist. Default: inferred. */
+  setup?: Setup;
+  /** Width of the running-median spike filter, samples (odd). Default 5 (removes spikes of ≤ 2 samples). */
+  spikeWidthSamples?: number;
 }
