@@ -1,0 +1,5 @@
+/** Working-fluid properties: water formulations, glycerol–water, presets. */
+export * from './water';
+export * from './glycerol-water';
+export * from './types';
+export { resolveFluid } from './presets';
