@@ -1,5 +1,7 @@
 /** The command table. Each command lives in its own file; add one line here per command. */
 import type { Command } from '../io';
+import { predictCommand } from './predict';
 
 export const commands: Command[] = [
+  predictCommand,
 ];

@@ -5,3 +5,4 @@ export * from './compliance';
 export * from './materials';
 export * from './types';
 export { predictNominal, T95_PER_TAU, type PredictOptions } from './predict';
+export { nominalPredictionToJson, type RangeJson } from './json';
