@@ -1,0 +1,46 @@
+import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { parseChipDescription } from '../../../src/core/chip';
+import { buildNetwork } from '../../../src/core/simulate/build-network';
+import { simulate } from '../../../src/core/simulate/simulate';
+import { timeConstantsAt } from '../../../src/core/simulate/truth';
+
+const chipText = readFileSync('sample-logs/chips/pdms-mixer.json', 'utf8');
+const chip = parseChipDescription(chipText, 'pdms-mixer.json');
+
+describe('buildNetwork', () => {
+  it('buildNetwork(chip, flow-driven) has τ = R_down·C of the nominal prediction (physics.md §4.2)', () => {
+    const built = buildNetwork(chip, 'flow-driven');
+    const taus = timeConstantsAt(built.network, ['flow'], { node: built.nominal.operatingPressurePa });
+    expect(taus).toHaveLength(1);
+    expect(taus[0]! / built.nominal.tauS.nominal).toBeCloseTo(1, 10);
+    // The steady inlet pressure of the simulated circuit is Q·R_down (physics.md §1.1).
+    const q = 1.666667e-11 * 5; // 5 µL/min (physics.md §5)
+    const res = simulate(built.network, { channels: [{ name: 'flow', quantity: 'flow', points: [{ timeS: 0, valueSI: q, rampS: 0 }] }] }, { timesS: Float64Array.from([0]) });
+    expect(res.nodePressurePa.node![0]! / (q * built.nominal.resistance.downstreamPaSPerM3.nominal)).toBeCloseTo(1, 12);
+  });
+
+  it('buildNetwork(chip, pressure-driven) has τ = C·R_up·R_down/(R_up + R_down) (physics.md §4.3)', () => {
+    const built = buildNetwork(chip, 'pressure-driven');
+    const taus = timeConstantsAt(built.network, ['pressure']);
+    expect(taus[0]! / built.nominal.tauS.nominal).toBeCloseTo(1, 10);
+    expect(built.network.resistors.map((r) => r.id)).toEqual(['upstream', 'downstream']);
+  });
+
+  it('buildNetwork(extra gas) adds V_atm·p_atm/p_abs² at the node (physics.md §3.3: 10 µL at 1 atm = 9.869e-14 m³/Pa)', () => {
+    const plain = buildNetwork(chip, 'flow-driven');
+    const bubbly = buildNetwork(chip, 'flow-driven', { extraGasAtAtmM3: 1e-8 });
+    expect(bubbly.gasVolumeAtAtmM3 - plain.gasVolumeAtAtmM3).toBeCloseTo(1e-8, 20);
+    const net = { ...bubbly.network, ambientPressurePa: 101325 };
+    const cAt0 = timeConstantsAt(net, ['flow'], { node: 0 })[0]! / bubbly.nominal.resistance.downstreamPaSPerM3.nominal;
+    expect((cAt0 - plain.linearComplianceM3PerPa) / 9.869e-14).toBeCloseTo(1, 3);
+  });
+
+  it('buildNetwork(outlet 10 cm above) adds the head ρ·g·h to the node pressure', () => {
+    const built = buildNetwork(chip, 'flow-driven', { outletHeightM: 0.1 });
+    const res = simulate(built.network, { channels: [{ name: 'flow', quantity: 'flow', points: [{ timeS: 0, valueSI: 0, rampS: 0 }] }] }, { timesS: Float64Array.from([0]) });
+    // ρ of water at 22 °C ≈ 997.77 kg/m³ (physics.md §2.1 table brackets it: 998.207 at 20 °C, 997.048 at 25 °C); g = 9.80665.
+    expect(res.nodePressurePa.node![0]!).toBeGreaterThan(997.048 * 9.80665 * 0.1);
+    expect(res.nodePressurePa.node![0]!).toBeLessThan(998.207 * 9.80665 * 0.1);
+  });
+});
