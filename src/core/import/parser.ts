@@ -1,0 +1,196 @@
+/**
+ * The log importer: text chunks in, a {@link Recording} and an {@link ImportReport} out. Pure (no I/O):
+ * `src/io/read-log.ts` feeds it a file's chunks. Detection runs once on the first ~64 KB; the rest of the
+ * file goes through the fast numeric tokenizer of `body.ts`.
+ */
+import { InputError, type Warning } from '../errors';
+import type { Recording } from '../recording/types';
+import { BodyParser, formatOffset, type BodyResult } from './body';
+import { planColumns, type ColumnPlan } from './columns';
+import { detectLayout, type Layout } from './detect';
+import { parseIsoDate, parseIsoTime } from './time-text';
+import type { ImportOptions, ImportReport } from './types';
+
+/** Characters collected before the layout is detected. */
+export const DETECTION_SAMPLE_CHARS = 64 * 1024;
+
+/** A log parser fed chunk by chunk. */
+export interface LogParser {
+  /** Feeds the next piece of the file's text, in order. */
+  push(chunk: string): void;
+  /** Ends the input; returns the recording and what was recognised. Throws InputError for bad input. */
+  finish(): ImportResult;
+}
+
+export interface ImportResult {
+  recording: Recording;
+  report: ImportReport;
+}
+
+/** Control characters that never occur in a text log (NUL and C0 codes other than tab, LF, CR, FF). */
+const BINARY_RE = /[\u0000-\u0008\u000E-\u001A\u001C-\u001F]/;
+
+/** Creates a parser for one log. */
+export function createLogParser(options: ImportOptions = {}): LogParser {
+  const file = options.sourceName;
+  let pending = '';
+  let started = false;
+  let hadBom = false;
+  let chars = 0;
+  let layout: Layout | null = null;
+  let plan: ColumnPlan | null = null;
+  let body: BodyParser | null = null;
+
+  const checkText = (text: string): void => {
+    const m = BINARY_RE.exec(text);
+    const replacement = (text.match(/\uFFFD/g) ?? []).length;
+    if (m || replacement > Math.max(8, text.length / 1000)) {
+      throw new InputError(
+        'binary-file',
+        'This is not a text log: it contains binary data',
+        'Export the log from the logger as delimited text (CSV, TSV), or choose the .csv/.txt file rather than the device\'s own binary file',
+        { file, line: m ? text.slice(0, m.index).split('\n').length : undefined },
+      );
+    }
+  };
+
+  const start = (final: boolean): void => {
+    checkText(pending);
+    layout = detectLayout(pending, final, options);
+    plan = planColumns(layout, options);
+    body = new BodyParser({
+      sourceName: file,
+      delimiter: layout.delimiter,
+      decimal: layout.decimal,
+      fieldCount: layout.fieldCount,
+      timeIndex: plan.timeIndex,
+      timeFormat: plan.timeFormat,
+      timeFactor: plan.timeFactor,
+      sampleRateHz: options.sampleRateHz,
+      timezoneOffsetMin: options.timezoneOffsetMin,
+      channels: plan.channels,
+      headers: plan.reports.map((r) => r.header),
+      firstLine: layout.bodyStartLine,
+      crOnly: layout.lineEnding === 'CR',
+      skipBadRows: options.skipBadRows ?? false,
+      sortTime: options.sortTime ?? false,
+      dropRepeatedTime: options.dropRepeatedTime ?? false,
+    });
+    const rest = pending.slice(layout.bodyStartOffset);
+    pending = '';
+    body.push(rest);
+  };
+
+  return {
+    push(chunk: string): void {
+      if (chunk.length === 0) return;
+      if (!started) {
+        started = true;
+        if (chunk.charCodeAt(0) === 0xfeff) {
+          hadBom = true;
+          chunk = chunk.slice(1);
+        }
+      }
+      chars += chunk.length;
+      if (body) {
+        if (chunk.length > 4096 ? BINARY_RE.test(chunk.slice(0, 4096)) : BINARY_RE.test(chunk)) checkText(chunk);
+        body.push(chunk);
+        return;
+      }
+      pending += chunk;
+      if (pending.length >= DETECTION_SAMPLE_CHARS) start(false);
+    },
+    finish(): ImportResult {
+      if (!body) start(true);
+      const result = (body as BodyParser).end();
+      return assemble(layout as Layout, plan as ColumnPlan, result, options, hadBom, chars);
+    },
+  };
+}
+
+/** Parses a whole log held in one string. */
+export function parseLogText(text: string, options: ImportOptions = {}): ImportResult {
+  const parser = createLogParser(options);
+  parser.push(text);
+  return parser.finish();
+}
+
+const START_KEY_RE = /start|begin|date|time|created|recorded|stamp/i;
+
+function startFromMetadata(metadata: Record<string, string>, options: ImportOptions, warnings: Warning[]): { dateMs: number | null; startEpochS: number | null } {
+  let dateMs: number | null = null;
+  let startEpochS: number | null = null;
+  for (const [key, value] of Object.entries(metadata)) {
+    if (!START_KEY_RE.test(key)) continue;
+    const iso = parseIsoTime(value, options.timezoneOffsetMin ?? 0);
+    if (iso && startEpochS === null) {
+      startEpochS = iso.epochWholeS + iso.fractionS;
+      if (!iso.hasZone && options.timezoneOffsetMin === undefined) {
+        warnings.push({ code: 'timezone-assumed-utc', message: `The start time '${key}: ${value}' carries no time zone; it was taken as UTC (give the zone with --timezone)` });
+      }
+    }
+    const date = parseIsoDate(value);
+    if (date !== null && dateMs === null) dateMs = date;
+  }
+  return { dateMs, startEpochS };
+}
+
+function assemble(layout: Layout, plan: ColumnPlan, body: BodyResult, options: ImportOptions, hadBom: boolean, chars: number): ImportResult {
+  const source = options.sourceName ?? '(text)';
+  const warnings: Warning[] = [...plan.warnings, ...body.warnings];
+  const meta = startFromMetadata(layout.metadata, options, warnings);
+  let startEpochMs: number | null = body.firstEpochMs;
+  if (startEpochMs === null && plan.timeFormat === 'clock' && body.firstClockS !== null && meta.dateMs !== null) {
+    startEpochMs = meta.dateMs + (body.firstClockS - (options.timezoneOffsetMin ?? 0) * 60) * 1000;
+    if (options.timezoneOffsetMin === undefined) {
+      warnings.push({ code: 'timezone-assumed-utc', message: 'Clock times carry no time zone; they were taken as UTC (give the logger\'s zone with --timezone)' });
+    }
+  }
+  if (startEpochMs === null && meta.startEpochS !== null && plan.timeFormat !== 'clock') {
+    const offsetS = plan.timeFormat === 'sample-rate' ? 0 : body.firstRawS;
+    startEpochMs = (meta.startEpochS + offsetS) * 1000;
+  }
+  const recording: Recording = {
+    timeS: body.timeS,
+    startEpochMs,
+    channels: plan.channels.map((c, k) => ({
+      name: c.name,
+      quantity: c.quantity,
+      originalHeader: c.header,
+      originalUnit: c.unit,
+      values: body.values[k] as Float64Array,
+      sourceIndex: 0,
+    })),
+    metadata: { ...layout.metadata },
+    sources: [source],
+    warnings,
+  };
+  const forced = [...layout.forced];
+  if (options.timeColumn !== undefined) forced.push('time column');
+  if (options.timeFormat) forced.push('time format');
+  if (options.sampleRateHz !== undefined) forced.push('sample rate');
+  if (options.timezoneOffsetMin !== undefined) forced.push(`timezone ${formatOffset(options.timezoneOffsetMin)}`);
+  if (options.columns?.length) forced.push('columns');
+  const report: ImportReport = {
+    source,
+    dialect: {
+      delimiter: layout.delimiter,
+      decimal: layout.decimal,
+      hadBom,
+      lineEnding: layout.lineEnding,
+      preambleLines: layout.preambleLines,
+      headerRows: layout.headerCells === null ? 0 : layout.unitCells === null ? 1 : 2,
+      headerLine: layout.headerLine,
+      timeFormat: plan.timeFormat,
+      timeColumn: plan.timeIndex === null ? null : plan.timeIndex + 1,
+      forced,
+    },
+    columns: plan.reports,
+    rows: body.rows,
+    skippedRows: body.skippedRows,
+    bytes: chars,
+    metadata: { ...layout.metadata },
+    warnings,
+  };
+  return { recording, report };
+}
