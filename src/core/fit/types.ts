@@ -114,3 +114,36 @@ export interface TransientFit {
   flags: FitFlag[];
   orderSelection: { criterion: 'BIC'; candidates: OrderCandidate[]; chosenTerms: number } | null;
 }
+
+/** Options of {@link SharedTauFit} fits: as for one window; `noiseSigma`, when given, applies to every window. */
+export type SharedTauFitOptions = TransientFitOptions;
+
+/** Per-window part of a shared-τ fit (SI, units of that window's response). */
+export interface SharedWindowFit {
+  yInf: Estimate;
+  /** Amplitudes in the order of `tausS`. */
+  amplitudes: Estimate[];
+  driftPerS: Estimate | null;
+  /** Points used. */
+  n: number;
+  rmse: number;
+  /** Noise σ used to weight this window, y units. */
+  noiseSigma: number;
+}
+
+/** Several windows fitted together with common time constants (and a common dead time). */
+export interface SharedTauFit {
+  model: TransientFit['model'];
+  /** Common time constants, ascending. */
+  tausS: Estimate[];
+  deadTimeS: Estimate | null;
+  windows: SharedWindowFit[];
+  converged: boolean;
+  stopReason: string;
+  iterations: number;
+  /** Points used in all windows. */
+  n: number;
+  dof: number;
+  flags: FitFlag[];
+  orderSelection: TransientFit['orderSelection'];
+}

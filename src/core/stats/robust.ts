@@ -30,16 +30,19 @@ export function madSigma(values: ArrayLike<number>): number {
  * e.g. Donoho–Johnstone-style MAD scale estimates). Steps and smooth trends barely affect it.
  */
 export function noiseSigmaFromDifferences(y: ArrayLike<number>): number {
-  const d: number[] = [];
+  const d = new Float64Array(Math.max(0, y.length - 1));
+  let k = 0;
   let prev = NaN;
   for (let i = 0; i < y.length; i++) {
     const v = y[i]!;
     if (!Number.isFinite(v)) continue;
-    if (Number.isFinite(prev)) d.push(v - prev);
+    if (Number.isFinite(prev)) d[k++] = v - prev;
     prev = v;
   }
-  if (d.length === 0) return NaN;
-  return (MAD_TO_SIGMA * mad(d)) / Math.SQRT2;
+  if (k === 0) return NaN;
+  const m = medianInPlace(d, k);
+  for (let i = 0; i < k; i++) d[i] = Math.abs(d[i]! - m);
+  return (MAD_TO_SIGMA * medianInPlace(d, k)) / Math.SQRT2;
 }
 
 function finiteCopy(values: ArrayLike<number>): Float64Array {
