@@ -4,7 +4,7 @@
  * See level-changes.ts for the method.
  */
 import { InputError } from '../errors';
-import type { Recording } from '../recording/types';
+import type { Channel, Recording } from '../recording/types';
 import { chooseSetup, driveChannel, responseChannel } from './choose-channel';
 import { findLevelChanges } from './level-changes';
 import type { Step, StepDetection, StepDetectionOptions } from './types';
@@ -16,12 +16,12 @@ import type { Step, StepDetection, StepDetectionOptions } from './types';
 export const DEFAULT_DWELL_S = { drive: 1, response: 5 } as const;
 
 /**
- * Finds the steps of `recording`. Throws InputError when `options.channel` names no channel.
- * Windows run from each onset to the next step or ramp, or to the end of the recording.
+ * The channel steps are searched on: `options.channel`, else the setup's drive channel (setpoint,
+ * else measured drive), else its response. Throws InputError for an unknown name or no channels.
  */
-export function detectSteps(recording: Recording, options: StepDetectionOptions = {}): StepDetection {
+export function detectionChannel(recording: Recording, options: Pick<StepDetectionOptions, 'channel' | 'setup' | 'responseChannel'> = {}): Channel {
   const setup = chooseSetup(recording, options.setup).setup;
-  const response = responseChannel(recording, setup);
+  const response = responseChannel(recording, setup, options.responseChannel);
   let channel = options.channel !== undefined ? recording.channels.find((c) => c.name === options.channel) : undefined;
   if (options.channel !== undefined && !channel) {
     throw new InputError(
@@ -34,6 +34,17 @@ export function detectSteps(recording: Recording, options: StepDetectionOptions 
   if (!channel) {
     throw new InputError('no-channels', 'The recording has no channels to detect steps on', 'Check the log header');
   }
+  return channel;
+}
+
+/**
+ * Finds the steps of `recording`. Throws InputError when `options.channel` names no channel.
+ * Windows run from each onset to the next step or ramp, or to the end of the recording.
+ */
+export function detectSteps(recording: Recording, options: StepDetectionOptions = {}): StepDetection {
+  const setup = chooseSetup(recording, options.setup).setup;
+  const response = responseChannel(recording, setup, options.responseChannel);
+  const channel = detectionChannel(recording, options);
   const origin: Step['origin'] = channel === response ? 'response' : 'drive';
   const found = findLevelChanges(recording.timeS, channel.values, {
     minStepSize: options.minStepSize,

@@ -68,6 +68,8 @@ export interface StepDetectionOptions {
   minDwellS?: number;
   /** Channel to detect on; default: a setpoint channel, else the drive, else the response. */
   channel?: string;
+  /** Response channel name when not the setup's default (decides whether steps are found on the response). */
+  responseChannel?: string;
   /** Which setup the log comes from; picks the drive channel when several exist. Default: inferred. */
   setup?: Setup;
   /** Width of the running-median spike filter, samples (odd). Default 5 (removes spikes of ≤ 2 samples). */
