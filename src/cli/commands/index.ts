@@ -1,7 +1,9 @@
 /** The command table. Each command lives in its own file; add one line here per command. */
 import type { Command } from '../io';
+import { analyzeCommand } from './analyze';
 import { predictCommand } from './predict';
 
 export const commands: Command[] = [
   predictCommand,
+  analyzeCommand,
 ];
