@@ -1,0 +1,407 @@
+/**
+ * The physics stage of the analysis: from each step's fit to R and C of the real circuit
+ * (src/core/circuits, docs/setups.md), the nominal prediction when a chip description is given
+ * (src/core/nominal), and trapped air (src/core/bubbles): the pressure fingerprint across steps,
+ * or the excess over the nominal compliance, and the trend of C over time.
+ *
+ * It runs on the analysis JSON plus the recording, so it is one clearly separated step after
+ * `analyzeRecording` (pure, no I/O). It adds per step `resistance_Pa_s_per_m3`,
+ * `resistance_ci95`, `compliance_m3_per_Pa`, `compliance_ci95`, `pressure_abs_Pa` and a `physics`
+ * detail object, and at top level `nominal`, `trapped_air` and `compliance_trend`.
+ */
+import type { Warning } from '../errors';
+import type { ChipDescription } from '../chip/types';
+import { predictNominal, nominalPredictionToJson } from '../nominal';
+import type { NominalPrediction } from '../nominal';
+import type { Recording } from '../recording/types';
+import {
+  complianceFromFlowBalance,
+  estimateFlowDriven,
+  estimatePressureDriven,
+} from '../circuits';
+import type { CircuitEstimate, FlowBalanceEstimate, LevelEstimate, PhysicalEstimate, PressureDrivenEstimate } from '../circuits';
+import { airVolumeFromExcess, excessCompliance, linearTrend, pressureFingerprint } from '../bubbles';
+import type { AirVolumeFromExcess, PressureFingerprint, Trend } from '../bubbles';
+import { InputError } from '../errors';
+import { stepFitFromJson } from './physics-fit';
+import { ci, num, warningJson } from './to-json';
+import type { AnalysisJson, Ci95, StepJson, WarningJson } from './types';
+
+/** Standard atmosphere, Pa (ISO 2533), used when no ambient pressure is known. */
+export const STANDARD_ATMOSPHERE_PA = 101325;
+
+export interface PhysicsOptions {
+  /** Chip description: nominal R and C, R_up, ambient pressure, excess compliance. */
+  chip?: ChipDescription;
+  /** Known upstream resistance R_up, Pa·s/m³ (overrides the chip description's). */
+  upstreamResistancePaSPerM3?: number;
+  /** Ambient pressure, Pa absolute; default the chip's, else 101325 Pa (with a warning). */
+  ambientPressurePa?: number;
+  /** Pressure-driven: where the flow sensor sits; default 'auto' (from the response shape). */
+  flowSensor?: 'inlet' | 'outlet' | 'auto';
+}
+
+export interface TrappedAirJson {
+  volume_m3_at_atm: number | null;
+  ci95: Ci95;
+  method: 'pressure-fingerprint' | 'excess-compliance';
+  evidence_of_gas: boolean;
+  statement: string;
+  ambient_pressure_Pa: number;
+  /** Fingerprint only: the pressure-independent compliance (liquid + walls). */
+  rigid_compliance_m3_per_Pa?: number | null;
+  rigid_compliance_ci95?: Ci95;
+  steps_used?: number;
+  pressure_levels?: number;
+}
+
+export interface TrendJson {
+  slope_m3_per_Pa_per_s: number | null;
+  slope_ci95: Ci95;
+  relative_slope_per_h: number | null;
+  direction: Trend['direction'];
+  statement: string;
+  points: number;
+}
+
+export interface StepPhysicsFields {
+  resistance_Pa_s_per_m3: number | null;
+  resistance_ci95: Ci95;
+  compliance_m3_per_Pa: number | null;
+  compliance_ci95: Ci95;
+  /** Mean absolute pressure at the compliant node during the step (ambient + gauge), Pa. */
+  pressure_abs_Pa: number | null;
+  physics: Record<string, unknown>;
+}
+
+export type StepWithPhysicsJson = StepJson & StepPhysicsFields;
+
+export interface AnalysisWithPhysicsJson extends Omit<AnalysisJson, 'steps'> {
+  steps: StepWithPhysicsJson[];
+  /** The nominal prediction (R, C and its breakdown) when a chip description was given. */
+  nominal: Record<string, unknown> | null;
+  trapped_air: TrappedAirJson | null;
+  compliance_trend: TrendJson | null;
+}
+
+const estJson = (e: PhysicalEstimate | null) => ({ value: num(e?.value), se: num(e?.standardError), ci95: ci(e?.ci95), inconclusive: e ? e.inconclusive : true });
+
+/** Mean and standard error of the finite samples of `values` with fromS ≤ t < toS. */
+function windowMean(timeS: Float64Array, values: Float64Array, fromS: number, toS: number): LevelEstimate & { n: number } {
+  let n = 0;
+  let sum = 0;
+  let sum2 = 0;
+  for (let i = 0; i < timeS.length; i++) {
+    const t = timeS[i] as number;
+    if (t < fromS || t >= toS) continue;
+    const v = values[i] as number;
+    if (!Number.isFinite(v)) continue;
+    n++;
+    sum += v;
+    sum2 += v * v;
+  }
+  const mean = n > 0 ? sum / n : Number.NaN;
+  const variance = n > 1 ? Math.max(0, (sum2 - n * mean * mean) / (n - 1)) : Number.NaN;
+  return { value: mean, standardError: n > 1 ? Math.sqrt(variance / n) : Number.NaN, n };
+}
+
+/**
+ * The settled level before a step: the last 20 % of the time since the previous onset (the end of
+ * the previous plateau; common practice, no source), at least 5 samples when available.
+ */
+function preStepLevel(recording: Recording, values: Float64Array, previousOnsetS: number, onsetS: number): LevelEstimate | undefined {
+  const span = onsetS - previousOnsetS;
+  if (!(span > 0)) return undefined;
+  let level = windowMean(recording.timeS, values, onsetS - 0.2 * span, onsetS);
+  if (level.n < 5) level = windowMean(recording.timeS, values, previousOnsetS, onsetS);
+  if (level.n < 2) return undefined;
+  return { value: level.value, standardError: level.standardError };
+}
+
+/** Which side of the compliant node a flow sensor sits on, from the sign of the slow amplitude (§4.3). */
+function sensorFromShape(step: StepJson): 'inlet' | 'outlet' {
+  const slow = step.terms[step.terms.length - 1];
+  const dp = (step.drive.after ?? 0) - (step.drive.before ?? 0);
+  // inlet: jumps past the plateau and decays (a has the sign of Δp); outlet: rises (opposite sign).
+  return (slow?.amplitude ?? 0) * dp > 0 ? 'inlet' : 'outlet';
+}
+
+interface StepContext {
+  recording: Recording;
+  options: PhysicsOptions;
+  ambientPa: number;
+  nominal: NominalPrediction | null;
+  previousOnsetS: number;
+}
+
+interface StepOutcome {
+  fields: StepPhysicsFields;
+  estimate: CircuitEstimate | null;
+  warnings: Warning[];
+}
+
+function upstreamFromOptions(ctx: StepContext): { level: LevelEstimate; source: string } | undefined {
+  if (ctx.options.upstreamResistancePaSPerM3 !== undefined) {
+    return { level: { value: ctx.options.upstreamResistancePaSPerM3 }, source: 'upstream resistance given by the user' };
+  }
+  const r = ctx.nominal?.resistance.upstreamPaSPerM3;
+  if (r && r.nominal > 0) {
+    // the nominal range is a plausible range: rectangular distribution, u = (high − low)/√12 (GUM §4.3.7)
+    return { level: { value: r.nominal, standardError: Math.abs(r.high - r.low) / Math.sqrt(12) }, source: 'upstream resistance from the chip description' };
+  }
+  return undefined;
+}
+
+function flowBalanceFor(ctx: StepContext, step: StepJson, response: Float64Array): FlowBalanceEstimate | null {
+  const flow = ctx.recording.channels.find((c) => c.quantity === 'flow' && c.name !== step.response.channel);
+  const qIn = step.drive.after;
+  if (!flow || qIn === null) return null;
+  const { timeS } = ctx.recording;
+  const idx: number[] = [];
+  for (let i = 0; i < timeS.length; i++) if ((timeS[i] as number) >= step.start_s && (timeS[i] as number) < step.end_s) idx.push(i);
+  if (idx.length < 10) return null;
+  // An outlet sensor lags the pump; one that follows the setpoint at once is at the inlet: skip it.
+  const head = idx.slice(0, Math.max(2, Math.floor(idx.length / 20)));
+  const headMean = head.reduce((a, i) => a + (flow.values[i] as number), 0) / head.length;
+  const before = step.drive.before ?? 0;
+  if (Math.abs(headMean - qIn) < Math.abs(headMean - before)) return null;
+  try {
+    return complianceFromFlowBalance({
+      tS: Float64Array.from(idx, (i) => (timeS[i] as number) - step.start_s),
+      pressurePa: Float64Array.from(idx, (i) => response[i] as number),
+      flowInM3PerS: qIn,
+      flowOutM3PerS: Float64Array.from(idx, (i) => flow.values[i] as number),
+    });
+  } catch (err) {
+    if (err instanceof InputError) return null;
+    throw err;
+  }
+}
+
+function emptyFields(reason: string): StepPhysicsFields {
+  return {
+    resistance_Pa_s_per_m3: null,
+    resistance_ci95: [null, null],
+    compliance_m3_per_Pa: null,
+    compliance_ci95: [null, null],
+    pressure_abs_Pa: null,
+    physics: { circuit: null, reason },
+  };
+}
+
+function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepContext): StepOutcome {
+  const fit = stepFitFromJson(step);
+  if (!fit || fit.terms.length === 0) return { fields: emptyFields('no fit for this step'), estimate: null, warnings: [] };
+  const { before, after, quantity } = step.drive;
+  const responseChannel = ctx.recording.channels.find((c) => c.name === step.response.channel);
+  const response = responseChannel?.values;
+  const warnings: Warning[] = [];
+  const driveIsFlow = quantity === 'flow' || quantity === 'flow_setpoint';
+  const driveIsPressure = quantity === 'pressure' || quantity === 'pressure_setpoint' || quantity === 'hydrostatic_head';
+  if (before === null || after === null || (setup === 'flow-driven' ? !driveIsFlow : !driveIsPressure)) {
+    const reason = `the drive levels of this step are not known as ${setup === 'flow-driven' ? 'flows' : 'pressures'} (steps found on ${quantity})`;
+    return { fields: emptyFields(reason), estimate: null, warnings: [{ code: 'no-drive-levels', message: `R and C need ${reason}.` }] };
+  }
+  let estimate: CircuitEstimate;
+  let gaugePa = Number.NaN;
+  let flowBalance: FlowBalanceEstimate | null = null;
+  const extra: Record<string, unknown> = {};
+  try {
+    if (setup === 'flow-driven') {
+      estimate = estimateFlowDriven({ pressureFit: fit, flowBeforeM3PerS: before, flowAfterM3PerS: after });
+      if (response) {
+        gaugePa = windowMean(ctx.recording.timeS, response, step.start_s, step.end_s).value;
+        flowBalance = flowBalanceFor(ctx, step, response);
+      }
+    } else {
+      const sensor = ctx.options.flowSensor && ctx.options.flowSensor !== 'auto' ? ctx.options.flowSensor : sensorFromShape(step);
+      const flowBefore = response ? preStepLevel(ctx.recording, response, ctx.previousOnsetS, step.start_s) : undefined;
+      const up = sensor === 'outlet' ? upstreamFromOptions(ctx) : undefined;
+      const pd: PressureDrivenEstimate = estimatePressureDriven({
+        flowFit: fit,
+        sensor: sensor === 'inlet' && !flowBefore ? 'outlet' : sensor,
+        pressureBeforePa: before,
+        pressureAfterPa: after,
+        ...(flowBefore ? { flowBefore } : {}),
+        ...(up ? { upstreamResistance: up.level } : {}),
+      });
+      estimate = pd;
+      extra.flow_sensor = sensor;
+      extra.flow_sensor_from = ctx.options.flowSensor && ctx.options.flowSensor !== 'auto' ? 'given' : 'response shape (inlet jumps and decays, outlet rises)';
+      extra.upstream_resistance_Pa_s_per_m3 = estJson(pd.upstreamResistancePaSPerM3);
+      extra.upstream_resistance_source = up ? up.source : pd.upstreamResistanceSource;
+      extra.downstream_resistance_Pa_s_per_m3 = estJson(pd.downstreamResistancePaSPerM3);
+      extra.compliance_lower_bound_m3_per_Pa = num(pd.complianceLowerBoundM3PerPa);
+      const pressure = ctx.recording.channels.find((c) => c.quantity === 'pressure');
+      if (pressure) {
+        gaugePa = windowMean(ctx.recording.timeS, pressure.values, step.start_s, step.end_s).value;
+        extra.pressure_from = `mean of ${pressure.name} during the step`;
+      } else {
+        const rd = pd.downstreamResistancePaSPerM3?.value;
+        const rt = pd.resistancePaSPerM3?.value;
+        const share = rd !== undefined && rt !== undefined && rd > 0 && rt > 0 ? rd / rt : 1;
+        gaugePa = after * share;
+        extra.pressure_from = share === 1 ? 'drive level after the step (node pressure not logged; an upper bound)' : 'drive level × R_down/R_total (steady-state divider, §4.3)';
+      }
+    }
+  } catch (err) {
+    if (!(err instanceof InputError)) throw err;
+    return { fields: emptyFields(err.problem), estimate: null, warnings: [{ code: err.code, message: err.problem }] };
+  }
+  warnings.push(...estimate.warnings);
+  const pAbs = ctx.ambientPa + gaugePa;
+  const r = estimate.resistancePaSPerM3;
+  const c = estimate.complianceM3PerPa;
+  const physics: Record<string, unknown> = {
+    circuit: estimate.setup,
+    tau_term: estimate.tauTermIndex,
+    tau_s: num(estimate.tauS.value),
+    resistance_se: num(r?.standardError),
+    resistance_inconclusive: r ? r.inconclusive : true,
+    compliance_se: num(c?.standardError),
+    compliance_inconclusive: c ? c.inconclusive : true,
+    ...extra,
+    flow_balance: flowBalance
+      ? {
+          compliance_m3_per_Pa: num(flowBalance.complianceM3PerPa.value),
+          compliance_ci95: ci(flowBalance.complianceM3PerPa.ci95),
+          n: flowBalance.n,
+          effective_n: num(flowBalance.effectiveN),
+          method: 'volume balance ∫(Q_in − Q_out)dt = C·(p − p₀), a cross-check of the fitted C',
+        }
+      : null,
+    notes: estimate.notes,
+  };
+  if (ctx.nominal && c && Number.isFinite(pAbs)) {
+    const nominalC = ctx.nominal.compliance.totalM3PerPa;
+    const excess = excessCompliance(c, { valueM3PerPa: nominalC.nominal, rangeM3PerPa: [nominalC.low, nominalC.high] }, fit.dof);
+    const air = airVolumeFromExcess(excess, { pressureAbsPa: pAbs, ambientPressurePa: ctx.ambientPa, vapourPressurePa: ctx.nominal.fluid.vapourPressurePa ?? 0 });
+    physics.excess_compliance_m3_per_Pa = num(excess.excessM3PerPa.value);
+    physics.excess_compliance_ci95 = ci(excess.excessM3PerPa.ci95);
+    physics.air_volume_m3_at_atm = num(air.volumeM3AtAtm);
+    physics.air_volume_ci95 = ci(air.ci95);
+    physics.air_statement = air.statement;
+  }
+  return {
+    fields: {
+      resistance_Pa_s_per_m3: num(r?.value),
+      resistance_ci95: ci(r?.ci95),
+      compliance_m3_per_Pa: num(c?.value),
+      compliance_ci95: ci(c?.ci95),
+      pressure_abs_Pa: num(pAbs),
+      physics,
+    },
+    estimate,
+    warnings,
+  };
+}
+
+function fingerprintJson(f: PressureFingerprint): TrappedAirJson {
+  return {
+    volume_m3_at_atm: num(f.volumeM3AtAtm),
+    ci95: ci(f.ci95),
+    method: 'pressure-fingerprint',
+    evidence_of_gas: f.evidenceOfGas,
+    statement: f.statement,
+    ambient_pressure_Pa: f.ambientPressurePa,
+    rigid_compliance_m3_per_Pa: num(f.rigidComplianceM3PerPa?.value),
+    rigid_compliance_ci95: ci(f.rigidComplianceM3PerPa?.ci95),
+    steps_used: f.steps,
+    pressure_levels: f.pressureLevels,
+  };
+}
+
+function excessJson(a: AirVolumeFromExcess, steps: number): TrappedAirJson {
+  return {
+    volume_m3_at_atm: num(a.volumeM3AtAtm),
+    ci95: ci(a.ci95),
+    method: 'excess-compliance',
+    evidence_of_gas: a.evidenceOfGas,
+    statement: a.statement,
+    ambient_pressure_Pa: a.ambientPressurePa,
+    steps_used: steps,
+  };
+}
+
+/** Adds R, C, pressures, the nominal prediction and trapped air to an analysis (header). */
+export function addPhysics(analysis: AnalysisJson, recording: Recording, options: PhysicsOptions = {}): AnalysisWithPhysicsJson {
+  const topWarnings: WarningJson[] = [...analysis.warnings];
+  const ambientGiven = options.ambientPressurePa ?? options.chip?.ambientPressurePa;
+  const ambientPa = ambientGiven ?? STANDARD_ATMOSPHERE_PA;
+  if (ambientGiven === undefined) {
+    topWarnings.push({ code: 'ambient-assumed', message: 'Ambient pressure not given: 101325 Pa (standard atmosphere) assumed for absolute pressures.' });
+  }
+  let nominal: NominalPrediction | null = null;
+  if (options.chip) {
+    nominal = predictNominal(options.chip, analysis.setup);
+    topWarnings.push(...nominal.warnings.map(warningJson));
+  }
+  const steps: StepWithPhysicsJson[] = [];
+  const estimates: (CircuitEstimate | null)[] = [];
+  let previousOnsetS = 0;
+  for (const step of analysis.steps) {
+    const out = stepPhysics(step, analysis.setup, { recording, options, ambientPa, nominal, previousOnsetS });
+    previousOnsetS = step.start_s;
+    estimates.push(out.estimate);
+    steps.push({
+      ...step,
+      ...out.fields,
+      warnings: [...step.warnings, ...out.warnings.map((w) => ({ ...warningJson(w), message: `Step ${step.index}: ${w.message}` }))],
+    });
+  }
+
+  // Trapped air across steps: the fingerprint (no chip needed) when it can be made, else the excess
+  // over the nominal compliance of the inverse-variance weighted mean C.
+  const withC = steps
+    .map((s, i) => ({ s, c: estimates[i]?.complianceM3PerPa ?? null }))
+    .filter((x): x is { s: StepWithPhysicsJson; c: PhysicalEstimate } => x.c !== null && Number.isFinite(x.c.value) && x.s.pressure_abs_Pa !== null);
+  const fingerprint = pressureFingerprint(
+    withC.map((x) => ({ complianceM3PerPa: x.c.value, standardError: x.c.standardError, pressureAbsPa: x.s.pressure_abs_Pa as number })),
+    { ambientPressurePa: ambientPa },
+  );
+  let trapped: TrappedAirJson | null = null;
+  if (fingerprint.volumeM3AtAtm !== null) {
+    trapped = fingerprintJson(fingerprint);
+  } else if (nominal && withC.length > 0) {
+    const weights = withC.map((x) => (x.c.standardError > 0 ? 1 / x.c.standardError ** 2 : 0));
+    const sw = weights.reduce((a, b) => a + b, 0);
+    if (sw > 0) {
+      const mean = withC.reduce((a, x, i) => a + (weights[i] as number) * x.c.value, 0) / sw;
+      const pMean = withC.reduce((a, x, i) => a + (weights[i] as number) * (x.s.pressure_abs_Pa as number), 0) / sw;
+      const dof = Math.min(...withC.map((x) => x.s.fit?.dof ?? 1));
+      const pooled: PhysicalEstimate = { value: mean, standardError: 1 / Math.sqrt(sw), ci95: [Number.NaN, Number.NaN], inconclusive: false };
+      const cNom = nominal.compliance.totalM3PerPa;
+      const excess = excessCompliance(pooled, { valueM3PerPa: cNom.nominal, rangeM3PerPa: [cNom.low, cNom.high] }, dof);
+      const air = airVolumeFromExcess(excess, { pressureAbsPa: pMean, ambientPressurePa: ambientPa, vapourPressurePa: nominal.fluid.vapourPressurePa ?? 0 });
+      trapped = excessJson(air, withC.length);
+      topWarnings.push(...air.warnings.map(warningJson));
+    }
+  }
+  if (trapped === null) {
+    topWarnings.push({
+      code: 'trapped-air-not-assessed',
+      message: `Trapped air not assessed: ${fingerprint.statement.replace(/^Inconclusive: /, '')}${nominal ? '' : ' Give a chip description (--chip) to compare with the nominal compliance'}`.trim(),
+    });
+  } else if (trapped.method === 'pressure-fingerprint') {
+    topWarnings.push(...fingerprint.warnings.filter((w) => w.code !== 'fingerprint-inconclusive').map(warningJson));
+  }
+
+  const trend = withC.length >= 3 ? linearTrend(withC.map((x) => ({ timeS: x.s.start_s, value: x.c.value, standardError: x.c.standardError }))) : null;
+  return {
+    ...analysis,
+    steps,
+    warnings: topWarnings,
+    nominal: nominal ? nominalPredictionToJson(nominal) : null,
+    trapped_air: trapped,
+    compliance_trend: trend
+      ? {
+          slope_m3_per_Pa_per_s: num(trend.slopePerS?.value),
+          slope_ci95: ci(trend.slopePerS?.ci95),
+          relative_slope_per_h: num(trend.relativeSlopePerHour),
+          direction: trend.direction,
+          statement: trend.statement,
+          points: trend.points,
+        }
+      : null,
+  };
+}
