@@ -18,7 +18,8 @@ export type Dimension =
 
 /** Unit spellings (after normalisation: µ/μ → u, spaces, · and * removed, ^ removed) → SI factor. */
 const PRESSURE: Record<string, number> = {
-  pa: 1, hpa: 100, kpa: 1e3, mpa: 1e6, gpa: 1e9, mbar: 100, bar: 1e5,
+  // No lower-case "mpa"/"gpa": milli- vs mega-pascal would be a guess; those must be written MPa, GPa.
+  pa: 1, hpa: 100, kpa: 1e3, mbar: 100, bar: 1e5,
   psi: 6894.757293168361, atm: 101325, mmhg: 133.322387415, cmh2o: 98.0665,
 };
 // Case matters for the SI prefixes m (milli) vs M (mega); pressures are matched case-sensitively first.
