@@ -174,6 +174,22 @@ export function fitShape(windows: ScaledWindow[], shape: ModelShape, opts: Engin
       degenerateReason = `the 95 % intervals of τ${k + 1} and τ${k + 2} overlap`;
     }
   }
+  if (!degenerate && shape.terms > 1) {
+    // A term the data do not support (τ or amplitude interval includes 0) is a spurious extra term.
+    for (let w = 0; w < windows.length && !degenerate; w++) {
+      for (let k = 0; k < shape.terms; k++) {
+        const seLog = sortedCov.standardErrors[k]!;
+        const ai = m + w * qw + 1 + k;
+        const amp = x[ai]!;
+        const seAmp = sortedCov.standardErrors[ai]!;
+        if (!(seLog < 1 / 1.96) || !(Math.abs(amp) > 1.96 * seAmp)) {
+          degenerate = true;
+          degenerateReason = `term ${k + 1} is not supported by the data (its τ or amplitude interval includes 0)`;
+          break;
+        }
+      }
+    }
+  }
   if (!degenerate && shape.terms > 1 && cov.rank < p) {
     degenerate = true;
     degenerateReason = `the Jacobian has rank ${cov.rank} < ${p} parameters`;
