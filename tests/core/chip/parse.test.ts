@@ -56,6 +56,15 @@ describe('parseChipDescription', () => {
     }
   });
 
+  it('parseChipDescription accepts the complete example of docs/chip-description.md (docs stay true)', () => {
+    const md = readFileSync('docs/chip-description.md', 'utf8');
+    const block = /## Complete example\s+```json\n([\s\S]*?)```/.exec(md)?.[1];
+    expect(block).toBeDefined();
+    const c = parseChipDescription(block as string, 'docs-example.json');
+    expect(c.path.chip).toHaveLength(4);
+    expect(c.ratingsPa).toEqual({ chip: 2e5, bonding: 2e5, tubing: 1e6, fittings: 7e5 });
+  });
+
   it('parseChipDescription reports a JSON syntax error at its line and column', () => {
     const text = valid.replace('"length": "1 cm" }', '"length": "1 cm", }');
     const e = errorOf(text);
