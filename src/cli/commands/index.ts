@@ -1,9 +1,13 @@
 /** The command table. Each command lives in its own file; add one line here per command. */
 import type { Command } from '../io';
+import { inspectCommand } from './inspect';
+import { exportCommand } from './export';
 import { analyzeCommand } from './analyze';
 import { predictCommand } from './predict';
 
 export const commands: Command[] = [
+  inspectCommand,
+  exportCommand,
   predictCommand,
   analyzeCommand,
 ];

@@ -93,7 +93,8 @@ export class BodyParser {
   private isoWithoutZone = false;
   private firstClockS: number | null = null;
   private hmsBaseWholeS: number | null = null;
-  private readonly timeDivisor: number;
+  /** Per field: a power-of-ten unit factor folded into the decimal exponent (exact: one rounding). */
+  private readonly shift: Int32Array;
 
   constructor(cfg: BodyConfig) {
     this.cfg = cfg;
@@ -106,10 +107,18 @@ export class BodyParser {
     this.decCode = cfg.decimal.charCodeAt(0);
     this.numericTime = cfg.timeFormat === 'seconds' || cfg.timeFormat === 'milliseconds' || cfg.timeFormat === 'minutes' || cfg.timeFormat === 'hours';
     this.timeIdx = cfg.timeIndex ?? -1;
-    // dividing by 1000 is correctly rounded; multiplying by the inexact 0.001 is not always
-    this.timeDivisor = cfg.timeFormat === 'milliseconds' ? 1000 : 0;
+    // A factor 10^k (mbar → Pa, kPa → Pa, ms → s) is applied by shifting the decimal exponent while reading,
+    // so that '0.315068' kPa becomes exactly the double nearest 315.068 Pa (multiplying by 1000 would not).
+    this.shift = new Int32Array(cfg.fieldCount);
+    const timeShift = cfg.timeFormat === 'milliseconds' ? -3 : 0;
+    if (cfg.timeIndex !== null && cfg.timeIndex !== undefined && timeShift !== 0) this.shift[cfg.timeIndex] = timeShift;
     this.chanIndex = Int32Array.from(cfg.channels.map((c) => c.index));
-    this.chanFactor = Float64Array.from(cfg.channels.map((c) => c.factorToSi));
+    this.chanFactor = Float64Array.from(cfg.channels.map((c) => {
+      const k = powerOfTen(c.factorToSi);
+      if (k === null || k === 0) return c.factorToSi;
+      this.shift[c.index] = k;
+      return 1;
+    }));
   }
 
   /** Feeds the next piece of text (any size; lines may be split across chunks). */
@@ -239,13 +248,15 @@ export class BodyParser {
           exp10 += eneg ? -e : e;
         }
         let v: number;
+        const sh = this.shift[f] as number;
+        exp10 += sh;
         if (exact && exp10 >= -22 && exp10 <= 22) {
           v = exp10 < 0 ? mant / (POW10[-exp10] as number) : mant * (POW10[exp10] as number);
           if (neg) v = -v;
         } else {
           let text = s.slice(numStart, i);
           if (dec !== 46) text = text.replace(String.fromCharCode(dec), '.');
-          v = Number(text);
+          v = shiftedNumber(text, sh);
         }
         row[f] = v;
       }
@@ -298,7 +309,10 @@ export class BodyParser {
   private parseSlow(text: string, lineNo: number): 'ok' | 'skip' {
     if (text.trim() === '' || isCommentLine(text)) return 'skip';
     const cfg = this.cfg;
-    const fields = withoutTrailingEmpty(splitFields(text, cfg.delimiter));
+    const raw = splitFields(text, cfg.delimiter);
+    const fields = withoutTrailingEmpty(raw);
+    // missing values at the end of a row still have their delimiters: `1.5,2.0,` is three fields
+    while (fields.length < cfg.fieldCount && raw.length > fields.length) fields.push('');
     if (fields.length !== cfg.fieldCount) {
       return this.bad(
         lineNo,
@@ -314,7 +328,7 @@ export class BodyParser {
         let t: number;
         if (this.numericTime) {
           const v = parseNumberText(field, cfg.decimal);
-          t = typeof v === 'number' ? v : Number.NaN;
+          t = typeof v === 'number' ? shiftedNumber(String(v), this.shift[f] as number) : Number.NaN;
         } else t = this.textTime(field);
         if (Number.isNaN(t)) {
           return this.bad(lineNo, f + 1, 'bad-time-value', `The time value '${unquote(field)}' cannot be read as ${cfg.timeFormat} time`, 'Fix the value, give the right --time-format, or skip such rows with --skip-bad-rows');
@@ -337,7 +351,7 @@ export class BodyParser {
       if (v === 'missing') {
         this.missingValues++;
         this.row[f] = Number.NaN;
-      } else this.row[f] = v;
+      } else this.row[f] = shiftedNumber(String(v), this.shift[f] as number);
     }
     return 'ok';
   }
@@ -356,7 +370,7 @@ export class BodyParser {
     if (this.timeIdx < 0) t = this.dataRows / (cfg.sampleRateHz as number);
     else if (this.numericTime) {
       const v = this.row[this.timeIdx] as number;
-      t = this.timeDivisor !== 0 ? v / this.timeDivisor : v * cfg.timeFactor;
+      t = this.shift[this.timeIdx] !== 0 ? v : v * cfg.timeFactor;
     }
     else {
       t = this.row[this.timeIdx] as number;
@@ -484,6 +498,25 @@ export class BodyParser {
       warnings,
     };
   }
+}
+
+/**
+ * 10^k → k for powers of ten within ±22, else null. A product of SI prefixes (1e-9 · 1e-3 for nL/s) may miss the
+ * double nearest 10^k by an ulp; those factors are exact decimal definitions, so a 1e-15 relative match counts.
+ */
+function powerOfTen(factor: number): number | null {
+  for (let k = -22; k <= 22; k++) {
+    const p = k < 0 ? 1 / (POW10[-k] as number) : (POW10[k] as number);
+    if (Math.abs(factor - p) <= 1e-15 * p) return k;
+  }
+  return null;
+}
+
+/** Number(text) × 10^shift with one rounding (the shift goes into the decimal exponent). */
+function shiftedNumber(text: string, shift: number): number {
+  if (shift === 0) return Number(text);
+  const m = /^([^eE]*)(?:[eE]([+-]?\d+))?$/.exec(text);
+  return Number(`${m?.[1] ?? text}e${Number(m?.[2] ?? 0) + shift}`);
 }
 
 function formatSeconds(s: number): string {

@@ -81,21 +81,37 @@ function modeOf(values: number[]): number {
   return best;
 }
 
+/**
+ * Number of fields of a data row for delimiter d: the largest count c that at least half of the tail lines fit
+ * (a line fits when it has c fields once trailing empty ones are dropped, or fewer, padded by its own trailing
+ * delimiters — a missing last value is still delimited). Null if the last line does not fit.
+ */
+function fieldCountOf(tail: Line[], d: Delimiter): number | null {
+  const counts = tail.map((l) => {
+    const raw = splitFields(l.text, d);
+    return { trimmed: withoutTrailingEmpty(raw).length, raw: raw.length };
+  });
+  const candidates = [...new Set(counts.map((c) => c.trimmed))].sort((a, b) => b - a);
+  const last = counts[counts.length - 1];
+  for (const c of candidates) {
+    const fit = counts.filter((x) => x.trimmed <= c && c <= x.raw).length;
+    if (fit / counts.length >= 0.5 && last && last.trimmed <= c && c <= last.raw) return c;
+  }
+  return null;
+}
+
 function chooseDelimiter(tail: Line[]): { delimiter: Delimiter; fieldCount: number } {
   let best: { delimiter: Delimiter; fieldCount: number; score: number } | null = null;
   for (const d of DELIMITER_PREFERENCE) {
-    const counts = tail.map((l) => fieldsOf(l.text, d).length);
-    const mode = modeOf(counts);
-    const last = counts[counts.length - 1];
-    const consistency = counts.filter((c) => c === mode).length / counts.length;
-    if (mode < 2 || last !== mode || consistency < 0.5) continue;
+    const mode = fieldCountOf(tail, d);
+    if (mode === null || mode < 2) continue;
     let values = 0;
     let all = 0;
     for (const l of tail) {
       const f = fieldsOf(l.text, d);
-      if (f.length !== mode) continue;
-      all += f.length;
-      values += f.filter(isValueField).length;
+      if (f.length > mode) continue;
+      all += mode;
+      values += f.filter(isValueField).length + (mode - f.length);
     }
     const score = values / all;
     if (!best || score > best.score + 1e-9) best = { delimiter: d, fieldCount: mode, score };
@@ -154,7 +170,7 @@ export function detectLayout(sample: string, final: boolean, options: ImportOpti
   let fieldCount: number;
   if (options.delimiter) {
     delimiter = options.delimiter;
-    fieldCount = modeOf(tail.map((l) => fieldsOf(l.text, delimiter).length));
+    fieldCount = fieldCountOf(tail, delimiter) ?? modeOf(tail.map((l) => fieldsOf(l.text, delimiter).length));
     forced.push('delimiter');
   } else {
     ({ delimiter, fieldCount } = chooseDelimiter(tail));
@@ -168,8 +184,9 @@ export function detectLayout(sample: string, final: boolean, options: ImportOpti
   }
 
   const isData = (l: Line): boolean => {
-    const f = fieldsOf(l.text, delimiter);
-    if (f.length !== fieldCount) return false;
+    const raw = splitFields(l.text, delimiter);
+    const f = withoutTrailingEmpty(raw);
+    if (f.length > fieldCount || raw.length < fieldCount) return false;
     let numbers = 0;
     for (const x of f) {
       const t = unquote(x);

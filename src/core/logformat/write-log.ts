@@ -122,7 +122,7 @@ export function writeLog(recording: Recording, dialect: Partial<LogDialect> = {}
   const trail = d.trailingDelimiter ? sep : '';
   if (!d.headerless) {
     const header = [...(hasTime ? [headerCell(timeName, timeUnit, d)] : []), ...cols.map((c) => headerCell(c.name, c.unit, d))];
-    parts.push(header.map((h) => quoteIfNeeded(h, sep.trim() || ' ')).join(sep) + trail + nl);
+    parts.push(header.map((h) => quoteIfNeeded(h, d.delimiter === 'whitespace' ? ' ' : d.delimiter)).join(sep) + trail + nl);
     if (d.unitStyle === 'units-row') {
       parts.push([...(hasTime ? [timeUnit] : []), ...cols.map((c) => c.unit.replace(/\s+/g, ''))].join(sep) + trail + nl);
     }
