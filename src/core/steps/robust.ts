@@ -32,7 +32,7 @@ export const MAD_TO_SIGMA = 1.482602218505602;
  * is from Rousseeuw & Croux, JASA 88 (1993) 1273). Uses at most `maxPairs` evenly spread differences
  * for speed on million-sample logs. Returns 0 for a noise-free (e.g. commanded setpoint) signal.
  */
-export function noiseSigmaFromDifferences(values: ArrayLike<number>, maxPairs = 200_001): number {
+export function noiseSigmaFromDifferences(values: ArrayLike<number>, maxPairs = 100_001): number {
   const n = values.length;
   if (n < 2) return 0;
   const pairs = n - 1;
