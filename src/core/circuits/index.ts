@@ -14,3 +14,4 @@ export { estimateFrom, isInconclusivePositive, propagate } from './propagate';
 export type { DerivedFunction } from './propagate';
 export { monteCarloPropagate } from './monte-carlo';
 export type { MonteCarloOptions, MonteCarloResult } from './monte-carlo';
+export { parseResistance } from './parse-resistance';
