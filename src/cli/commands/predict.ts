@@ -4,7 +4,6 @@
  */
 import { readFile } from 'node:fs/promises';
 import { resolve } from 'node:path';
-import { parseArgs } from 'node:util';
 import { parseChipDescription } from '../../core/chip/parse';
 import { parseQuantity } from '../../core/chip/quantity';
 import { InputError } from '../../core/errors';
@@ -14,8 +13,17 @@ import type { ValueRange } from '../../core/nominal/range';
 import { SETUPS, type NominalPrediction, type Setup } from '../../core/nominal/types';
 import { checkPressureAgainstRatings, PRESSURE_SAFETY_CAUTION, type RatedPart } from '../../core/safety';
 import { DISPLAY_UNITS, formatNumber, fromSi, SI_UNITS, TRADE_UNITS, type DisplayUnit, type UnitSystem } from '../../core/units/display';
+import { booleanOption, formatOptionHelp, parseCommandArgs, stringOption, type OptionSpecs } from '../args';
 import { UsageError, type CliIo, type Command } from '../io';
 import type { ChipDescription } from '../../core/chip/types';
+
+const OPTIONS: OptionSpecs = {
+  setup: { type: 'string', valueName: '<name>', description: 'flow-driven (default; pump → node → chip, τ = R_down·C) or pressure-driven (regulator → R_up → node → R_down, τ = C·R_up·R_down/(R_up+R_down))' },
+  units: { type: 'string', valueName: '<system>', description: 'trade (default: mbar, µL/min, mbar/(µL/min), nL/mbar) or si' },
+  'compliance-unit': { type: 'string', valueName: '<unit>', description: 'nL/mbar (= µL/bar), uL/bar, uL/mbar, nL/kPa or m3/Pa' },
+  pressure: { type: 'string', valueName: '<value>', description: 'gauge pressure at the compliant node, e.g. "300 mbar" (bare number: Pa); overrides "operatingPressure"; sets gas compliance' },
+  json: { type: 'boolean', description: 'machine-readable output in SI (resistance_Pa_s_per_m3, compliance_m3_per_Pa, breakdown[], tau_s, t95_s with ranges)' },
+};
 
 const HELP = `Usage: lagbench predict <chip.json> [options]
 
@@ -25,14 +33,7 @@ docs/chip-description.md). Every value comes with a [low, nominal, high] range f
 uncertainty.
 
 Options:
-  --setup <name>            flow-driven (default; pump → node → chip, τ = R_down·C) or
-                            pressure-driven (regulator → R_up → node → R_down, τ = C·R_up·R_down/(R_up+R_down))
-  --units <system>          trade (default: mbar, µL/min, mbar/(µL/min), nL/mbar) or si
-  --compliance-unit <unit>  nL/mbar (= µL/bar), uL/bar, uL/mbar or nL/kPa (trade units only)
-  --pressure <value>        gauge pressure at the compliant node, e.g. "300 mbar" (bare number: Pa);
-                            overrides "operatingPressure" of the description; sets gas compliance
-  --json                    machine-readable output in SI (resistance_Pa_s_per_m3, compliance_m3_per_Pa,
-                            breakdown[], tau_s, t95_s with ranges)
+${formatOptionHelp(OPTIONS)}
 
 Examples:
   lagbench predict sample-logs/chips/pdms-mixer.json
@@ -41,42 +42,27 @@ Examples:
 `;
 
 function parse(args: string[]): { file: string; setup: Setup; units: UnitSystem; json: boolean; pressurePa?: number } {
-  let parsed;
-  try {
-    parsed = parseArgs({
-      args,
-      allowPositionals: true,
-      options: {
-        setup: { type: 'string' },
-        units: { type: 'string' },
-        'compliance-unit': { type: 'string' },
-        pressure: { type: 'string' },
-        json: { type: 'boolean' },
-      },
-    });
-  } catch (e) {
-    throw new UsageError(e instanceof Error ? e.message : String(e), 'predict');
-  }
-  const { values, positionals } = parsed;
+  const { values, positionals } = parseCommandArgs(args, OPTIONS, 'predict');
   if (positionals.length !== 1) throw new UsageError(positionals.length === 0 ? 'missing the chip description file' : `expected one chip description file, got ${positionals.length}`, 'predict');
-  const setup = (values.setup ?? 'flow-driven') as Setup;
-  if (!SETUPS.includes(setup)) throw new UsageError(`unknown --setup '${values.setup}'; use ${SETUPS.join(' or ')}`, 'predict');
-  const system = values.units ?? 'trade';
+  const setupText = stringOption(values, 'setup') ?? 'flow-driven';
+  if (!(SETUPS as readonly string[]).includes(setupText)) throw new UsageError(`unknown --setup '${setupText}'; use ${SETUPS.join(' or ')}`, 'predict');
+  const system = stringOption(values, 'units') ?? 'trade';
   if (system !== 'trade' && system !== 'si') throw new UsageError(`unknown --units '${system}'; use trade or si`, 'predict');
   let units: UnitSystem = system === 'si' ? SI_UNITS : TRADE_UNITS;
-  const cu = values['compliance-unit'];
+  const cu = stringOption(values, 'compliance-unit');
   if (cu !== undefined) {
     const unit = DISPLAY_UNITS.compliance[cu.replace(/[µμ]/g, 'u')];
     if (!unit) throw new UsageError(`unknown --compliance-unit '${cu}'; use ${Object.keys(DISPLAY_UNITS.compliance).join(', ')}`, 'predict');
     units = { ...units, compliance: unit };
   }
   let pressurePa: number | undefined;
-  if (values.pressure !== undefined) {
-    const q = parseQuantity(values.pressure, 'pressure');
+  const pressureText = stringOption(values, 'pressure');
+  if (pressureText !== undefined) {
+    const q = parseQuantity(pressureText, 'pressure');
     if ('error' in q) throw new UsageError(`--pressure: ${q.error}; write e.g. "300 mbar" or a number in Pa`, 'predict');
     pressurePa = q.value;
   }
-  return { file: positionals[0] as string, setup, units, json: values.json ?? false, ...(pressurePa === undefined ? {} : { pressurePa }) };
+  return { file: positionals[0] as string, setup: setupText as Setup, units, json: booleanOption(values, 'json'), ...(pressurePa === undefined ? {} : { pressurePa }) };
 }
 
 const fmt = (valueSi: number, unit: DisplayUnit, digits = 3): string => formatNumber(fromSi(valueSi, unit), digits);
