@@ -4,10 +4,14 @@ import { inspectCommand } from './inspect';
 import { exportCommand } from './export';
 import { analyzeCommand } from './analyze';
 import { predictCommand } from './predict';
+import { qcCommand } from './qc';
+import { historyCommand } from './history';
 
 export const commands: Command[] = [
   inspectCommand,
   exportCommand,
   predictCommand,
   analyzeCommand,
+  qcCommand,
+  historyCommand,
 ];

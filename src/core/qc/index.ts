@@ -8,3 +8,7 @@ export * from './verdict';
 export * from './lot-stats';
 export * from './control-chart';
 export * from './lot-summary';
+export { combineEstimates, fromCi } from './combine';
+export { measurementFromAnalysis, readPhysicsQuantity } from './from-analysis';
+export { stepCurves, modelCurve, type StepCurve } from './step-curves';
+export { chipIdFor, fileStem } from './chip-id';

@@ -54,7 +54,13 @@ export interface QcSpec {
   formatVersion: 1;
   design: { name: string; revision: string | null; description: string | null };
   /** Which set-up and test program the measurement must come from. */
-  test: { setup: string; program: string; notes: string | null };
+  test: {
+    setup: string;
+    program: string;
+    notes: string | null;
+    /** How the chip is driven in the test (analysis setup); null = inferred from the log. */
+    drive: 'flow-driven' | 'pressure-driven' | null;
+  };
   limits: QcLimit[];
   fitQuality: {
     requireConverged: boolean;

@@ -1,0 +1,66 @@
+/**
+ * One QC job: read a log, hash it, import, analyse, derive the chip ID and the chip measurement,
+ * and the step plots for the report. Runs in a worker thread (qc-worker.ts) or in-process.
+ * Results are plain data (structured-clone safe); errors come back as data too.
+ */
+import { readFileSync } from 'node:fs';
+import { analyzeRecording } from '../core/analyze/analyze';
+import { defaultFitter } from '../core/analyze/default-fitter';
+import { InputError } from '../core/errors';
+import { chipIdFor } from '../core/qc/chip-id';
+import { measurementFromAnalysis } from '../core/qc/from-analysis';
+import { stepCurves, type StepCurve } from '../core/qc/step-curves';
+import type { ChipMeasurement } from '../core/qc/types';
+import { readLogFile } from '../io/read-log';
+import { sha256Hex } from '../io/sha256';
+import { VERSION } from './version';
+
+export interface QcJob {
+  /** Absolute path to read. */
+  path: string;
+  /** Path as shown to the user and recorded. */
+  displayPath: string;
+  chipIdFrom: string | null;
+  drive: 'flow-driven' | 'pressure-driven' | null;
+}
+
+export interface QcJobValue {
+  displayPath: string;
+  sha256: string;
+  chipId: string;
+  measurement: ChipMeasurement;
+  steps: StepCurve[];
+  setup: string;
+}
+
+export type QcJobResult = { ok: true; value: QcJobValue } | { ok: false; displayPath: string; message: string; inputError: boolean };
+
+export async function runQcJob(job: QcJob): Promise<QcJobResult> {
+  try {
+    let bytes: Buffer;
+    try {
+      bytes = readFileSync(job.path);
+    } catch {
+      throw new InputError('file-unreadable', 'The log cannot be read', 'Check the path and permissions', { file: job.displayPath });
+    }
+    const sha256 = sha256Hex(bytes);
+    const { recording } = await readLogFile(job.path, {}, undefined, job.displayPath);
+    const chipId = chipIdFor(job.chipIdFrom, job.displayPath, recording.metadata);
+    const analysis = analyzeRecording(
+      recording,
+      { setup: job.drive ?? undefined, software: { name: 'lagbench', version: VERSION } },
+      defaultFitter,
+    );
+    return {
+      ok: true,
+      value: { displayPath: job.displayPath, sha256, chipId, measurement: measurementFromAnalysis(analysis, chipId), steps: stepCurves(recording, analysis), setup: analysis.setup },
+    };
+  } catch (err) {
+    return {
+      ok: false,
+      displayPath: job.displayPath,
+      message: err instanceof Error ? err.message : String(err),
+      inputError: err instanceof InputError,
+    };
+  }
+}
