@@ -67,7 +67,8 @@ function gasItem(ctx: Context, e: PathElement, section: PathSection, volumeM3: n
     element: e.label, jsonPath: e.origin.jsonPath, section, source: 'gas',
     method: `isothermal V/p_abs at ${(p / 1e5).toFixed(3)} bar abs; low: adiabatic V/(γp), γ = ${AIR_HEAT_CAPACITY_RATIO}; high: vapour-saturated V/(p − p_v) (physics.md §3.3)`,
     tag: 'D',
-    complianceM3PerPa: { low: gasCompliance(volumeM3, p, 'adiabatic'), nominal: gasCompliance(volumeM3, p), high: volumeM3 / (p - pv) },
+    // Vapour bound only where it is defined (p_abs above the vapour pressure); otherwise isothermal.
+    complianceM3PerPa: { low: gasCompliance(volumeM3, p, 'adiabatic'), nominal: gasCompliance(volumeM3, p), high: p > pv ? volumeM3 / (p - pv) : gasCompliance(volumeM3, p) },
     counted,
     ...(note ? { note } : {}),
   });
