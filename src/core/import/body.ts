@@ -466,7 +466,7 @@ export class BodyParser {
     const first = timeS[0] as number;
     if (first !== 0) for (let i = 0; i < timeS.length; i++) timeS[i] = (timeS[i] as number) - first;
     let firstEpochMs: number | null = null;
-    if (cfg.timeFormat === 'iso' && this.isoBaseWholeS !== null) firstEpochMs = (this.isoBaseWholeS + first) * 1000;
+    if (cfg.timeFormat === 'iso' && this.isoBaseWholeS !== null) firstEpochMs = this.isoBaseWholeS * 1000 + Math.round(first * 1e9) / 1e6; // to the ns, without the rounding of (whole + fraction) · 1000
     if (this.isoWithoutZone) {
       warnings.push({
         code: cfg.timezoneOffsetMin === undefined ? 'timezone-assumed-utc' : 'timezone-from-option',

@@ -157,7 +157,8 @@ export function detectLayout(sample: string, final: boolean, options: ImportOpti
     throw new InputError('empty-file', 'The file is empty', 'Choose the log file your logger wrote (it should hold a header and rows of numbers)', { file });
   }
   const lineEnding: Layout['lineEnding'] = sample.includes('\r\n') ? 'CRLF' : sample.includes('\n') ? 'LF' : sample.includes('\r') ? 'CR' : 'LF';
-  const all = splitLines(sample, final);
+  // a lone CR ends lines in old Mac-style files; same length, so offsets stay valid
+  const all = splitLines(lineEnding === 'CR' ? sample.replace(/\r/g, '\n') : sample, final);
   const content = all.filter((l) => l.text.trim() !== '' && !isCommentLine(l.text));
   if (content.length === 0) {
     throw new InputError('no-data-rows', 'The file holds only comments or blank lines, no data rows', 'Check that this is the log file itself and not a settings or notes file', { file });
@@ -199,11 +200,13 @@ export function detectLayout(sample: string, final: boolean, options: ImportOpti
     return numbers > 0;
   };
 
+  const allNumbers = (l: Line): boolean => fieldsOf(l.text, delimiter).every((x) => isValueField(x) && unquote(x) !== '');
   let firstData = -1;
   for (let i = 0; i < content.length; i++) {
     const line = content[i] as Line;
     const next = content[i + 1];
-    if (isData(line) && (next === undefined || isData(next))) {
+    // a data line followed by another data line, or by a row of numbers with the wrong count (a ragged row)
+    if (isData(line) && (next === undefined || isData(next) || allNumbers(next))) {
       firstData = i;
       break;
     }

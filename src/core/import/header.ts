@@ -46,7 +46,8 @@ export function parseHeaderCell(cell: string): HeaderCell {
 export function unitsRowCell(cell: string): string {
   const t = unquote(cell.trim());
   const m = /^[[(](.*)[\])]$/.exec(t);
-  return (m ? (m[1] ?? '') : t).trim();
+  const u = (m ? (m[1] ?? '') : t).trim();
+  return /^[-\u2013\u2014]$/.test(u) ? '' : u; // a dash marks "no unit"
 }
 
 /** Whether a row reads as a row of units under the names: some cells known units, none a number. */

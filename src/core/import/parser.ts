@@ -141,14 +141,14 @@ function assemble(layout: Layout, plan: ColumnPlan, body: BodyResult, options: I
   const meta = startFromMetadata(layout.metadata, options, warnings);
   let startEpochMs: number | null = body.firstEpochMs;
   if (startEpochMs === null && plan.timeFormat === 'clock' && body.firstClockS !== null && meta.dateMs !== null) {
-    startEpochMs = meta.dateMs + (body.firstClockS - (options.timezoneOffsetMin ?? 0) * 60) * 1000;
+    startEpochMs = meta.dateMs + Math.round((body.firstClockS - (options.timezoneOffsetMin ?? 0) * 60) * 1e9) / 1e6;
     if (options.timezoneOffsetMin === undefined) {
       warnings.push({ code: 'timezone-assumed-utc', message: 'Clock times carry no time zone; they were taken as UTC (give the logger\'s zone with --timezone)' });
     }
   }
   if (startEpochMs === null && meta.startEpochS !== null && plan.timeFormat !== 'clock') {
     const offsetS = plan.timeFormat === 'sample-rate' ? 0 : body.firstRawS;
-    startEpochMs = (meta.startEpochS + offsetS) * 1000;
+    startEpochMs = Math.round((meta.startEpochS + offsetS) * 1e6) / 1e3;
   }
   const recording: Recording = {
     timeS: body.timeS,

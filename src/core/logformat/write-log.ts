@@ -124,7 +124,9 @@ export function writeLog(recording: Recording, dialect: Partial<LogDialect> = {}
     const header = [...(hasTime ? [headerCell(timeName, timeUnit, d)] : []), ...cols.map((c) => headerCell(c.name, c.unit, d))];
     parts.push(header.map((h) => quoteIfNeeded(h, d.delimiter === 'whitespace' ? ' ' : d.delimiter)).join(sep) + trail + nl);
     if (d.unitStyle === 'units-row') {
-      parts.push([...(hasTime ? [timeUnit] : []), ...cols.map((c) => c.unit.replace(/\s+/g, ''))].join(sep) + trail + nl);
+      // between runs of spaces an empty cell would vanish: '-' stands for "no unit" there
+      const none = d.delimiter === 'whitespace' ? '-' : '';
+      parts.push([...(hasTime ? [timeUnit || none] : []), ...cols.map((c) => c.unit.replace(/\s+/g, '') || none)].join(sep) + trail + nl);
     }
   }
   const q = d.quoteNumbers ? '"' : '';
@@ -141,7 +143,8 @@ export function writeLog(recording: Recording, dialect: Partial<LogDialect> = {}
       const v = c.values[i] as number;
       let text = formatNumber(c.factor === 1 ? v : v / c.factor, d.digits);
       if (dec === ',') text = text.replace('.', ',');
-      cells.push(text === '' ? '' : `${q}${text}${q}`);
+      // an empty field cannot be seen between runs of spaces: write NaN there
+      cells.push(text === '' ? (d.delimiter === 'whitespace' ? 'NaN' : '') : `${q}${text}${q}`);
     }
     rows.push(cells.join(sep) + trail);
     if (rows.length === 10000) {
