@@ -6,6 +6,7 @@ import { analyzeCommand } from './analyze';
 import { predictCommand } from './predict';
 import { qcCommand } from './qc';
 import { historyCommand } from './history';
+import { simulateCommand } from './simulate';
 
 export const commands: Command[] = [
   inspectCommand,
@@ -14,4 +15,5 @@ export const commands: Command[] = [
   analyzeCommand,
   qcCommand,
   historyCommand,
+  simulateCommand,
 ];

@@ -27,6 +27,8 @@ export interface LoggerSpec {
   /** How far this logger's clock is ahead of true time, s (two loggers rarely agree). */
   clockOffsetS: number;
   channels: LoggedChannel[];
+  /** Resolution of the written timestamps, s (default 1 ms, or 10 µs above 200 Hz): loggers round their clocks. */
+  timeResolutionS?: number;
 }
 
 export interface SimulateLogsOptions {
@@ -72,8 +74,14 @@ export function simulateLogs(network: Network, program: Program, loggers: Logger
       };
     });
     const t0 = timesS[0] ?? 0;
+    const res = logger.timeResolutionS ?? (logger.sampleRateHz > 200 ? 1e-5 : 1e-3);
+    const decimals = Math.max(0, Math.round(-Math.log10(res)));
+    const written = timesS.map((t) => Number((t - t0).toFixed(decimals)));
+    for (let k = 1; k < written.length; k++) {
+      if (!((written[k] as number) > (written[k - 1] as number))) written[k] = Number(((written[k - 1] as number) + res).toFixed(decimals));
+    }
     const recording: Recording = {
-      timeS: timesS.map((t) => t - t0),
+      timeS: written,
       startEpochMs: options.startEpochMs + (t0 + logger.clockOffsetS) * 1000,
       channels,
       metadata: { simulated: 'yes (invented data, Lagbench simulator)', seed: String(options.seed) },

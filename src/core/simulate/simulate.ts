@@ -58,7 +58,17 @@ export function steadyState(sys: Assembled, u: Float64Array): Float64Array {
     for (let d = 0; d < sys.nDrive; d++) r += (sys.B[i * sys.nDrive + d] as number) * (u[d] as number);
     rhs[i] = -r;
   }
-  const lu = luFactor(sys.K);
+  // Row equilibration first: node rows are O(1/R) ~ 1e-13 while lag rows are O(1/τ) ~ 1e2, and the
+  // singularity test of the LU is relative to the largest entry.
+  const k = { n, a: new Float64Array(sys.K.a) };
+  for (let i = 0; i < n; i++) {
+    let m = 0;
+    for (let j = 0; j < n; j++) m = Math.max(m, Math.abs(k.a[i * n + j] as number));
+    if (m === 0) continue;
+    for (let j = 0; j < n; j++) k.a[i * n + j] = (k.a[i * n + j] as number) / m;
+    rhs[i] = (rhs[i] as number) / m;
+  }
+  const lu = luFactor(k);
   if (lu.singular) {
     throw new InputError('no-steady-state', 'the network has no steady state: some node has no resistive path to ground, a head or a pressure source', "connect every node through resistances to an outlet, or use initial 'rest'");
   }
