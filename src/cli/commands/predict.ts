@@ -70,12 +70,12 @@ const fmtRange = (r: ValueRange, unit: DisplayUnit): [string, string, string] =>
 
 /** Left column padded, three right-aligned numbers, optional trailing text. */
 function row(label: string, cells: [string, string, string], tail = ''): string {
-  const name = label.length > 38 ? `${label.slice(0, 37)}…` : label;
-  return `  ${name.padEnd(38)} ${cells.map((c) => c.padStart(10)).join(' ')}${tail ? `  ${tail}` : ''}`;
+  const name = label.length > 48 ? `${label.slice(0, 47)}…` : label;
+  return `  ${name.padEnd(48)} ${cells.map((c) => c.padStart(10)).join(' ')}${tail ? `  ${tail}` : ''}`;
 }
 
 function header(title: string, unit: DisplayUnit): string {
-  return `${title.padEnd(40)} ${'low'.padStart(10)} ${'nominal'.padStart(10)} ${'high'.padStart(10)}   [${unit.symbol}]`;
+  return `${title.padEnd(50)} ${'low'.padStart(10)} ${'nominal'.padStart(10)} ${'high'.padStart(10)}   [${unit.symbol}]`;
 }
 
 function humanReport(chip: ChipDescription, p: NominalPrediction, u: UnitSystem): string {
@@ -106,7 +106,7 @@ function humanReport(chip: ChipDescription, p: NominalPrediction, u: UnitSystem)
   lines.push('');
   lines.push(header('Compliance by source', u.compliance));
   for (const c of p.compliance.breakdown) {
-    lines.push(row(`${c.element} (${c.source})`, fmtRange(c.complianceM3PerPa, u.compliance), `[${c.tag}]${c.counted ? '' : ' not counted'}`));
+    lines.push(row(`${c.section}: ${c.element} (${c.source})`, fmtRange(c.complianceM3PerPa, u.compliance), `[${c.tag}]${c.counted ? '' : ' not counted'}`));
   }
   lines.push(row('total at the node', fmtRange(p.compliance.totalM3PerPa, u.compliance)));
   lines.push('');

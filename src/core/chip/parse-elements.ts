@@ -1,6 +1,6 @@
 /** Reading the flow-path elements of a chip description (schema: docs/chip-description.md). */
 import type { InputError } from '../errors';
-import { findMaterial, MATERIAL_IDS } from '../nominal/materials';
+import { findMaterial, MATERIAL_IDS, shoreAToModulusPa } from '../nominal/materials';
 import type { ValueRange } from '../nominal/range';
 import type { LocatedJson } from './located-json';
 import type { DocumentReader, ObjectReader } from './reader';
@@ -36,8 +36,16 @@ export function readMaterial(o: ObjectReader, defaultId?: string): ElasticMateri
   const id = (defaultId === undefined ? o.string('material', true, choices) : (o.string('material', false, choices) ?? defaultId)) as string;
   const given = o.range('modulus', 'pressure', { positive: true });
   const poissonGiven = o.has('poisson') ? o.number('poisson', 0, 0.5) : undefined;
+  if (o.has('shoreA')) {
+    if (id !== 'custom' || given) {
+      throw o.doc.error('shore-a-conflict', o.child('shoreA'), o.get('shoreA', true).pos, '"shoreA" is only for "material": "custom" without a "modulus"', 'Remove "shoreA", or set "material" to "custom" and drop "modulus"');
+    }
+    const e = shoreAToModulusPa(o.number('shoreA', 10, 90));
+    // Gent (1958) relation, about ±50 % (physics.md §3.8 [M]).
+    return { id, label: `elastomer, Shore A ${o.number('shoreA', 10, 90)}`, modulusPa: { low: e * 0.5, nominal: e, high: e * 1.5 }, poisson: poissonGiven ?? 0.49, tag: 'M', source: 'modulus from Shore A hardness, Gent (1958) [M], ±50 %' };
+  }
   if (id === 'custom') {
-    if (!given) throw o.doc.error('missing-member', o.path, o.pos, 'a custom material needs a "modulus"', 'Add "modulus", e.g. "5 MPa" or { "low": "3 MPa", "nominal": "5 MPa", "high": "8 MPa" }');
+    if (!given) throw o.doc.error('missing-member', o.path, o.pos, 'a custom material needs a "modulus" (or, for elastomer tubing, "shoreA")', 'Add "modulus", e.g. "5 MPa" or { "low": "3 MPa", "nominal": "5 MPa", "high": "8 MPa" }');
     return { id, label: 'custom material', modulusPa: given, poisson: poissonGiven ?? 0.45, tag: 'U', source: 'user-supplied modulus' + (poissonGiven === undefined ? '; Poisson ratio 0.45 assumed [P]' : '') };
   }
   const m = findMaterial(id);
@@ -67,7 +75,7 @@ export function readSeries(doc: DocumentReader, items: Array<{ node: LocatedJson
 }
 
 function readElement(doc: DocumentReader, node: LocatedJson, path: string, errors: InputError[]): PathElement {
-  const peek = doc.object(node, path, [...COMMON, 'width', 'height', 'length', 'diameter', 'innerDiameter', 'outerDiameter', 'material', 'modulus', 'poisson', 'ends', 'tolerance', 'volume', 'gasVolume', 'liquidVolume', 'headspaceIsSource', 'resistance', 'compliance', 'kind', 'branches']);
+  const peek = doc.object(node, path, [...COMMON, 'width', 'height', 'length', 'diameter', 'innerDiameter', 'outerDiameter', 'material', 'modulus', 'poisson', 'shoreA', 'ends', 'tolerance', 'volume', 'gasVolume', 'liquidVolume', 'headspaceIsSource', 'resistance', 'compliance', 'kind', 'branches']);
   const type = peek.string('type', true, ELEMENT_TYPES) as (typeof ELEMENT_TYPES)[number];
   const origin: ElementOrigin = { jsonPath: path, line: node.pos.line, column: node.pos.column };
   const label = peek.string('label') ?? `${path.replace(/^\$\.path\./, '')} ${type}`;
@@ -93,7 +101,7 @@ function readElement(doc: DocumentReader, node: LocatedJson, path: string, error
       };
     }
     case 'tubing': {
-      const o = allowed(['innerDiameter', 'outerDiameter', 'length', 'material', 'modulus', 'poisson', 'ends', 'tolerance']);
+      const o = allowed(['innerDiameter', 'outerDiameter', 'length', 'material', 'modulus', 'poisson', 'shoreA', 'ends', 'tolerance']);
       const innerDiameterM = o.quantity('innerDiameter', 'length', { required: true, positive: true });
       const outerDiameterM = o.quantity('outerDiameter', 'length', { required: true, positive: true });
       if (!(outerDiameterM > innerDiameterM)) {

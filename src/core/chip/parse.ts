@@ -48,6 +48,7 @@ function readFluid(o: ObjectReader): FluidSpec {
   const tolerance = o.quantity('temperatureTolerance', 'temperature-difference', { min: 0 }) ?? DEFAULT_TEMPERATURE_TOLERANCE_K;
   if (preset === 'custom') {
     const kappa = o.quantity('compressibility', 'compressibility', { positive: true });
+    const density = o.quantity('density', 'density', { positive: true });
     return {
       kind: 'custom',
       name: o.string('name') ?? 'custom fluid',
@@ -56,6 +57,7 @@ function readFluid(o: ObjectReader): FluidSpec {
       viscosityRelativeUncertainty: o.number('viscosityUncertainty', 0, 0.9, 0.05),
       ...(kappa === undefined ? {} : { compressibilityPerPa: kappa }),
       compressibilityRelativeUncertainty: o.number('compressibilityUncertainty', 0, 0.9, 0.1),
+      ...(density === undefined ? {} : { densityKgPerM3: density }),
     };
   }
   if (preset === 'glycerol-water' && !o.has('glycerolMassFraction')) {
@@ -116,7 +118,7 @@ export function parseChipDescription(text: string, fileName: string): ChipDescri
   }
   const fluidNode = top.get('fluid', true, 'Add "fluid", e.g. { "preset": "water", "temperature": "22 C" }');
   const fluid = attempt(() => {
-    const spec = readFluid(doc.object(fluidNode, '$.fluid', ['preset', 'name', 'temperature', 'temperatureTolerance', 'glycerolMassFraction', 'viscosity', 'viscosityUncertainty', 'compressibility', 'compressibilityUncertainty']));
+    const spec = readFluid(doc.object(fluidNode, '$.fluid', ['preset', 'name', 'temperature', 'temperatureTolerance', 'glycerolMassFraction', 'viscosity', 'viscosityUncertainty', 'compressibility', 'compressibilityUncertainty', 'density']));
     try {
       resolveFluid(spec);
     } catch (e) {

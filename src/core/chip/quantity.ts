@@ -14,6 +14,7 @@ export type Dimension =
   | 'compressibility'
   | 'resistance'
   | 'compliance'
+  | 'density'
   | 'dimensionless';
 
 /** Unit spellings (after normalisation: µ/μ → u, spaces, · and * removed, ^ removed) → SI factor. */
@@ -100,6 +101,8 @@ function unitFactor(unit: string, dim: Dimension): number | undefined {
       const p = pressureFactor(parts[1]);
       return v !== undefined && p !== undefined ? v / p : undefined;
     }
+    case 'density':
+      return ({ 'kg/m3': 1, 'g/mL': 1e3, 'g/ml': 1e3, 'g/cm3': 1e3, 'kg/L': 1e3, 'g/L': 1 } as Record<string, number>)[unit];
     case 'temperature':
     case 'dimensionless':
       return undefined;
@@ -117,6 +120,7 @@ export const UNIT_EXAMPLES: Record<Dimension, string> = {
   compressibility: '"4.6e-10 1/Pa", "0.46 1/GPa" or 1/Pa as a number',
   resistance: '"2.3 mbar/(uL/min)", "1.4e13 Pa s/m3" or Pa·s/m³ as a number',
   compliance: '"0.01 uL/mbar", "98 nL/kPa", "5 uL/bar" or m³/Pa as a number',
+  density: '"1.05 g/mL", "1050 kg/m3" or kg/m³ as a number',
   dimensionless: 'a plain number such as 0.3',
 };
 

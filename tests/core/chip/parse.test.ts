@@ -187,3 +187,35 @@ describe('parseLocatedJson', () => {
     expect(() => parseLocatedJson('', 'f')).toThrow(/empty/);
   });
 });
+
+describe('parseChipDescription material and fluid options', () => {
+  const base = (tube: object, fluid: object = { preset: 'water', temperature: '20 C' }): string =>
+    JSON.stringify({
+      format: 'lagbench-chip/1',
+      fluid,
+      chipBody: { material: 'glass' },
+      path: { upstream: [{ type: 'tubing', innerDiameter: '1 mm', outerDiameter: '3 mm', length: '10 cm', ...tube }], chip: [{ type: 'measured', resistance: 1e13 }] },
+    });
+
+  it('parseChipDescription turns a Shore A hardness into a ±50 % modulus range (Gent 1958)', () => {
+    // physics.md §3.8: Gent relation [M] gives about 2.5 MPa at Shore A 50 [N].
+    const c = parseChipDescription(base({ material: 'custom', shoreA: 50 }), 'c.json');
+    const t = c.path.upstream[0];
+    if (t?.type !== 'tubing') throw new Error('expected tubing');
+    expect(t.material.modulusPa.nominal / 1e6).toBeCloseTo(2.5, 1);
+    expect(t.material.modulusPa.high / t.material.modulusPa.low).toBeCloseTo(3, 12);
+    expect(t.material.tag).toBe('M');
+  });
+
+  it('parseChipDescription refuses "shoreA" together with a table material', () => {
+    expect(() => parseChipDescription(base({ material: 'silicone', shoreA: 50 }), 'c.json')).toThrow(/"shoreA" is only for "material": "custom"/);
+  });
+
+  it('parseChipDescription reads a custom fluid with density in g/mL', () => {
+    const c = parseChipDescription(base({ material: 'ptfe' }, { preset: 'custom', name: 'oil', temperature: '20 C', viscosity: '20 cP', density: '0.85 g/mL' }), 'c.json');
+    expect(c.fluid.kind).toBe('custom');
+    if (c.fluid.kind !== 'custom') return;
+    expect(c.fluid.viscosityPaS).toBeCloseTo(0.02, 12);
+    expect(c.fluid.densityKgPerM3).toBeCloseTo(850, 9);
+  });
+});
