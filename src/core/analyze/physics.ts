@@ -350,8 +350,9 @@ export function addPhysics(analysis: AnalysisJson, recording: Recording, options
     });
   }
 
-  // Trapped air across steps: the fingerprint (no chip needed) when it can be made, else the excess
-  // over the nominal compliance of the inverse-variance weighted mean C.
+  // Trapped air across steps, two methods: the pressure fingerprint (no chip needed) and the excess
+  // over the nominal compliance of the inverse-variance weighted mean C (with a chip). When both can
+  // be made, the one with the narrower 95 % CI is reported (it is the more informative one).
   const withC = steps
     .map((s, i) => ({ s, c: estimates[i]?.complianceM3PerPa ?? null }))
     .filter((x): x is { s: StepWithPhysicsJson; c: PhysicalEstimate } => x.c !== null && Number.isFinite(x.c.value) && x.s.pressure_abs_Pa !== null);
@@ -359,10 +360,11 @@ export function addPhysics(analysis: AnalysisJson, recording: Recording, options
     withC.map((x) => ({ complianceM3PerPa: x.c.value, standardError: x.c.standardError, pressureAbsPa: x.s.pressure_abs_Pa as number })),
     { ambientPressurePa: ambientPa },
   );
-  let trapped: TrappedAirJson | null = null;
+  const candidates: { json: TrappedAirJson; warnings: Warning[] }[] = [];
   if (fingerprint.volumeM3AtAtm !== null) {
-    trapped = fingerprintJson(fingerprint);
-  } else if (nominal && withC.length > 0) {
+    candidates.push({ json: fingerprintJson(fingerprint), warnings: fingerprint.warnings });
+  }
+  if (nominal && withC.length > 0) {
     const weights = withC.map((x) => (x.c.standardError > 0 ? 1 / x.c.standardError ** 2 : 0));
     const sw = weights.reduce((a, b) => a + b, 0);
     if (sw > 0) {
@@ -373,17 +375,19 @@ export function addPhysics(analysis: AnalysisJson, recording: Recording, options
       const cNom = nominal.compliance.totalM3PerPa;
       const excess = excessCompliance(pooled, { valueM3PerPa: cNom.nominal, rangeM3PerPa: [cNom.low, cNom.high] }, dof);
       const air = airVolumeFromExcess(excess, { pressureAbsPa: pMean, ambientPressurePa: ambientPa, vapourPressurePa: nominal.fluid.vapourPressurePa ?? 0 });
-      trapped = excessJson(air, withC.length);
-      topWarnings.push(...air.warnings.map(warningJson));
+      candidates.push({ json: excessJson(air, withC.length), warnings: air.warnings });
     }
   }
+  const width = (j: TrappedAirJson): number => (j.ci95[0] !== null && j.ci95[1] !== null ? j.ci95[1] - j.ci95[0] : Infinity);
+  candidates.sort((a, b) => width(a.json) - width(b.json));
+  const chosen = candidates[0];
+  const trapped: TrappedAirJson | null = chosen ? chosen.json : null;
+  if (chosen) topWarnings.push(...chosen.warnings.map(warningJson));
   if (trapped === null) {
     topWarnings.push({
       code: 'trapped-air-not-assessed',
       message: `Trapped air not assessed: ${fingerprint.statement.replace(/^Inconclusive: /, '')}${nominal ? '' : ' Give a chip description (--chip) to compare with the nominal compliance'}`.trim(),
     });
-  } else if (trapped.method === 'pressure-fingerprint') {
-    topWarnings.push(...fingerprint.warnings.filter((w) => w.code !== 'fingerprint-inconclusive').map(warningJson));
   }
 
   const trend = withC.length >= 3 ? linearTrend(withC.map((x) => ({ timeS: x.s.start_s, value: x.c.value, standardError: x.c.standardError }))) : null;
