@@ -211,6 +211,7 @@ export function detectLayout(sample: string, final: boolean, options: ImportOpti
       break;
     }
   }
+  if (firstData < 0) firstData = content.findIndex(isData); // a short log whose second row is bad
   if (firstData < 0) {
     const looksHeader = content.length <= 3;
     throw new InputError(
