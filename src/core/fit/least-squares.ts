@@ -121,7 +121,7 @@ export function solveLeastSquares(problem: LeastSquaresProblem, x0: ArrayLike<nu
   const rTrial = new Float64Array(n);
   const jac = new Float64Array(n * p);
   const d = new Float64Array(p);
-  const jd = new Float64Array(n);
+  let jd: Float64Array | null = null;
   const svd = new ScaledSvd(n, p);
 
   problem.residuals(x, r);
@@ -192,6 +192,7 @@ export function solveLeastSquares(problem: LeastSquaresProblem, x0: ArrayLike<nu
       let predicted = predicted0;
       if (project(xTrial, lower, upper)) {
         // Predicted reduction of the projected step from the linear model: ‖r‖² − ‖r + J·δ‖².
+        jd ??= new Float64Array(n);
         jd.fill(0);
         for (let j = 0; j < p; j++) {
           const dj = xTrial[j]! - x[j]!;

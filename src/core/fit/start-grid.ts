@@ -159,7 +159,35 @@ export function bestGridCombinations(
     }
   };
   visit(0, 0);
+  if (terms === 1 && best[0]) refineSingle(best[0]);
   return best;
+
+  /**
+   * One term: move the best grid τ to the vertex of the parabola through the closed-form SSR at it and
+   * its two grid neighbours (saves the optimiser an iteration or two).
+   */
+  function refineSingle(cand: GridCandidate): void {
+    const k = grid.indexOf(cand.logTaus[0]!);
+    if (k <= 0 || k >= K - 1) return;
+    const ssrAt = (j: number): number => {
+      idx[fixed] = fixed + j;
+      for (let a = 0; a < q; a++) {
+        rhs[a] = h[idx[a]!]!;
+        for (let b = 0; b < q; b++) mat[a * q + b] = gram(idx[a]!, idx[b]!);
+      }
+      if (!choleskySolve(mat, rhs, q, c)) return NaN;
+      let explained = 0;
+      for (let a = 0; a < q; a++) explained += c[a]! * rhs[a]!;
+      return yy - explained;
+    };
+    const sm = ssrAt(k - 1);
+    const s0 = ssrAt(k);
+    const sp = ssrAt(k + 1);
+    const curvature = sm - 2 * s0 + sp;
+    if (!(curvature > 0)) return;
+    const offset = Math.max(-0.5, Math.min(0.5, (0.5 * (sm - sp)) / curvature));
+    cand.logTaus[0] = grid[k]! + offset * (grid[k + 1]! - grid[k]!);
+  }
 }
 
 /** Dead-time profile: the dead time on a grid over [0, maxDeadTime] whose best 1-term grid fit has the least SSR. */

@@ -8,7 +8,7 @@
  */
 import { InputError } from '../errors';
 import { fSurvival } from '../stats/f-dist';
-import { median, noiseSigmaFromDifferences } from '../stats/robust';
+import { median, medianInPlace, noiseSigmaFromDifferences } from '../stats/robust';
 import { studentTQuantile } from '../stats/student-t';
 import { lag1Autocorrelation, runsTestZ, settlingTime } from './diagnostics';
 import { fitShape, MAX_DEAD_TIME, type ShapeFit } from './engine';
@@ -74,13 +74,14 @@ export function prepareWindow(data: TransientData, noiseSigma?: number): Prepare
   let yScale = 1;
   if (n > 0) {
     const blocks = Math.min(64, n);
+    const scratch = new Float64Array(Math.ceil(n / blocks) + 1);
     let lo = Infinity;
     let hi = -Infinity;
     for (let b = 0; b < blocks; b++) {
       const i0 = Math.floor((b * n) / blocks);
       const i1 = Math.floor(((b + 1) * n) / blocks);
-      const seg = y.subarray(i0, i1);
-      const m = median(seg);
+      for (let i = i0; i < i1; i++) scratch[i - i0] = y[i]!;
+      const m = medianInPlace(scratch, i1 - i0);
       lo = Math.min(lo, m);
       hi = Math.max(hi, m);
     }

@@ -34,6 +34,19 @@ function upperTail(t: number, dof: number): number {
  * safeguarded by bisection, to a relative accuracy of about 1e-13.
  */
 export function studentTQuantile(p: number, dof: number): number {
+  // Fits ask for the same (0.975, dof) again and again: remember the last few answers.
+  const key = `${p}|${dof}`;
+  const cached = quantileCache.get(key);
+  if (cached !== undefined) return cached;
+  const value = studentTQuantileUncached(p, dof);
+  if (quantileCache.size > 256) quantileCache.clear();
+  quantileCache.set(key, value);
+  return value;
+}
+
+const quantileCache = new Map<string, number>();
+
+function studentTQuantileUncached(p: number, dof: number): number {
   if (Number.isNaN(p) || p < 0 || p > 1 || !(dof > 0)) return NaN;
   if (p === 0) return -Infinity;
   if (p === 1) return Infinity;
