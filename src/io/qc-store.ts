@@ -281,7 +281,7 @@ export function storedSpecText(store: QcStore, sha256: string): string | null {
   return row?.spec_text ?? null;
 }
 
-/** Lot statistics (newest record per chip) and R/C control charts across all lots in the store. */
+/** Lot statistics (newest record per chip) and control charts of R, C and τ across all lots in the store. */
 export function lotStatistics(store: QcStore, lot: string): { statistics: LotStatistics; charts: ControlCharts[] } {
   const records = latestPerChip(queryHistory(store, { lot }));
   const all = queryHistory(store);
@@ -290,6 +290,6 @@ export function lotStatistics(store: QcStore, lot: string): { statistics: LotSta
   for (const l of lots) latestAll.push(...latestPerChip(all.filter((r) => (r.lot ?? '') === l)));
   return {
     statistics: computeLotStatistics(lot, records),
-    charts: (['resistance', 'compliance'] as const).map((q) => controlCharts(latestAll, q)),
+    charts: (['resistance', 'compliance', 'tau'] as const).map((q) => controlCharts(latestAll, q)),
   };
 }

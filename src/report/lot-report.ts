@@ -47,10 +47,11 @@ export function renderLotReportHtml(input: LotReportInput): string {
   const rDisp = displayUnit('resistance', null);
   const cDisp = displayUnit('compliance', null);
   const aDisp = displayUnit('trapped_air', null);
-  body.push(`<table><thead><tr><th>Chip</th><th>Verdict</th><th>Disposition</th><th>R (${escapeHtml(rDisp.symbol)})</th><th>C (${escapeHtml(cDisp.symbol)})</th><th>Trapped air (${escapeHtml(aDisp.symbol)})</th><th>Operator</th><th>Time (UTC)</th><th>Failed or inconclusive checks</th></tr></thead><tbody>${input.records
+  const tDisp = displayUnit('tau', null);
+  body.push(`<table><thead><tr><th>Chip</th><th>Verdict</th><th>Disposition</th><th>R (${escapeHtml(rDisp.symbol)})</th><th>C (${escapeHtml(cDisp.symbol)})</th><th>Trapped air (${escapeHtml(aDisp.symbol)})</th><th>τ (s)</th><th>t₉₅ (s)</th><th>Operator</th><th>Time (UTC)</th><th>Failed or inconclusive checks</th></tr></thead><tbody>${input.records
     .map((r) => {
       const bad = r.results.filter((x) => x.verdict !== 'pass').map((x) => x.reason);
-      return `<tr><td>${escapeHtml(r.chipId)}</td><td>${badge(r.verdict)}</td><td>${badge(r.disposition)}</td><td class="num">${escapeHtml(showValue(r.quantities.resistance?.value, rDisp))}</td><td class="num">${escapeHtml(showValue(r.quantities.compliance?.value, cDisp))}</td><td class="num">${escapeHtml(showValue(r.quantities.trapped_air?.value, aDisp))}</td><td>${escapeHtml(r.operator ?? '—')}</td><td>${escapeHtml(r.recordedAt)}</td><td>${bad.map((b) => escapeHtml(b)).join('<br>') || '—'}</td></tr>`;
+      return `<tr><td>${escapeHtml(r.chipId)}</td><td>${badge(r.verdict)}</td><td>${badge(r.disposition)}</td><td class="num">${escapeHtml(showValue(r.quantities.resistance?.value, rDisp))}</td><td class="num">${escapeHtml(showValue(r.quantities.compliance?.value, cDisp))}</td><td class="num">${escapeHtml(showValue(r.quantities.trapped_air?.value, aDisp))}</td><td class="num">${escapeHtml(showValue(r.quantities.tau?.value, tDisp))}</td><td class="num">${escapeHtml(showValue(r.quantities.t95?.value, tDisp))}</td><td>${escapeHtml(r.operator ?? '—')}</td><td>${escapeHtml(r.recordedAt)}</td><td>${bad.map((b) => escapeHtml(b)).join('<br>') || '—'}</td></tr>`;
     })
     .join('')}</tbody></table>`);
   body.push(`<p class="rule"><strong>Decision rule.</strong> ${escapeHtml(input.records[0]?.rule ?? VERDICT_RULE)}</p>`);
@@ -63,10 +64,14 @@ export function renderLotReportHtml(input: LotReportInput): string {
     })
     .join('')}</tbody></table>`);
   body.push('<p class="sub">Cp = (USL − LSL)/(6σ), Cpk = min(USL − μ, μ − LSL)/(3σ) with μ, σ the sample mean and SD (Montgomery, <em>Introduction to Statistical Quality Control</em>, 6th ed., §8.3). With few chips these are rough estimates.</p>');
-  body.push('<h2 class="page-break">Control charts of R and C across lots</h2>');
+  body.push('<h2 class="page-break">Control charts of R, C and τ across lots</h2>');
   body.push('<p class="sub">Shewhart individuals charts: centre line = mean, limits = mean ± 3σ̂ with σ̂ = average moving range / d₂ (d₂ = 1.128); Shewhart (1931), Montgomery §6.4. Circled points lie outside the limits.</p>');
   for (const c of input.charts) {
-    body.push(`<section>${chartSvg(c, 'individuals', input.lot)}${chartSvg(c, 'lotMeans', input.lot)}</section>`);
+    if (c.individuals.points.length === 0) {
+      body.push(`<p>${escapeHtml(QC_QUANTITY_LABEL[c.quantity])}: no recorded values to chart.</p>`);
+      continue;
+    }
+    body.push(`<section>${chartSvg(c, 'individuals', input.lot)}${c.lotMeans.points.length > 1 ? chartSvg(c, 'lotMeans', input.lot) : '<p class="sub">One lot only: no chart of lot means yet.</p>'}</section>`);
   }
   body.push('<h2>Traceability</h2>');
   body.push(`<table><thead><tr><th>Chip</th><th>Record</th><th>Spec SHA-256</th><th>Input files (SHA-256)</th><th>Software</th></tr></thead><tbody>${input.records

@@ -76,7 +76,7 @@ describe('renderLotReportHtml', () => {
   it('renderLotReportHtml shows counts, capability, both control charts with limits, escaped chip IDs', () => {
     const base = reportInput();
     const records: QcRecord[] = [1.9e13, 2.0e13, 2.1e13, 2.05e13].map((r, k) => ({
-      id: k + 1, chipId: k === 3 ? HOSTILE : `M2-00${k}`, lot: 'L1', operator: 'op', recordedAt: `2026-12-01T10:0${k}:00.000Z`,
+      id: k + 1, chipId: k === 3 ? HOSTILE : `M2-00${k}`, lot: k < 2 ? 'L0' : 'L1', operator: 'op', recordedAt: `2026-12-01T10:0${k}:00.000Z`,
       specSha256: 'a'.repeat(64), specDesign: 'M2', softwareVersion: '0.1.0', settings: {}, inputs: [{ path: 'x.csv', sha256: 'b'.repeat(64) }],
       verdict: 'pass', disposition: 'pass', rule: base.evaluation.rule,
       results: base.evaluation.results.map((x) => (x.check === 'resistance' ? { ...x, value: r } : x)),
@@ -84,13 +84,14 @@ describe('renderLotReportHtml', () => {
     }));
     const html = renderLotReportHtml({
       lot: 'L1', records, statistics: computeLotStatistics('L1', records),
-      charts: [controlCharts(records, 'resistance'), controlCharts(records, 'compliance')],
+      charts: [controlCharts(records, 'resistance'), controlCharts(records, 'compliance'), controlCharts(records, 'tau')],
       generatedAt: '2026-12-01T12:00:00.000Z', softwareVersion: '0.1.0', storePath: 'records.sqlite',
     });
     expect(html).toContain('UCL (+3σ)');
     expect(html).toContain('Hydraulic resistance R — individuals chart');
     expect(html).toContain('Compliance C — lot means across lots');
     expect(html).toContain('Cpk');
+    expect(html).toContain('Time constant τ: no recorded values to chart.');
     expect(html).not.toContain('<script>');
     expect(externalReferences(html)).toEqual([]);
     expect(html).toContain(escapeHtml(PRESSURE_SAFETY_CAUTION));
