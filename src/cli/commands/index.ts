@@ -7,6 +7,7 @@ import { predictCommand } from './predict';
 import { qcCommand } from './qc';
 import { historyCommand } from './history';
 import { simulateCommand } from './simulate';
+import { whatifCommand } from './whatif';
 
 export const commands: Command[] = [
   inspectCommand,
@@ -16,4 +17,5 @@ export const commands: Command[] = [
   qcCommand,
   historyCommand,
   simulateCommand,
+  whatifCommand,
 ];
