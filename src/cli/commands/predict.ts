@@ -119,6 +119,7 @@ function humanReport(chip: ChipDescription, p: NominalPrediction, u: UnitSystem)
   }
   lines.push('', 'Notes:');
   for (const n of p.notes) lines.push(`  - ${n}`);
+  for (const c of p.compliance.breakdown) if (c.note) lines.push(`  - ${c.element} (${c.source}): ${c.note}`);
   lines.push('', ...ratingLines(chip, p, u), '', PRESSURE_SAFETY_CAUTION);
   return `${lines.join('\n')}\n`;
 }

@@ -82,8 +82,8 @@ const ORGANIC: Record<'ethanol' | 'isopropanol', OrganicPreset> = {
     compressibilityHalfWidth: 0.15,
     densityKgPerM3: 789,
     sources: [
-      'viscosity 1.074 mPa·s at 25 °C from a CRC-derived public list [S]; 1.19–1.20 at 20 °C [M] (physics.md §2.3); ±3 %',
-      'compressibility about 1.1e-9 /Pa at 20 °C [M, physics.md §2.3]; ±15 %',
+      'viscosity 1.074 mPa·s at 25 °C from a CRC-derived public list [S]; 1.19–1.20 at 20 °C [M]; ±3 %',
+      'compressibility about 1.1e-9 /Pa at 20 °C [M]; ±15 %',
     ],
   },
   isopropanol: {
@@ -96,7 +96,7 @@ const ORGANIC: Record<'ethanol' | 'isopropanol', OrganicPreset> = {
     compressibilityHalfWidth: 0.3,
     densityKgPerM3: 785,
     sources: [
-      'viscosity about 2.4 mPa·s at 20 °C and 2.04 at 25 °C [M, physics.md §2.3]; ±10 %',
+      'viscosity about 2.4 mPa·s at 20 °C and 2.04 at 25 °C [M]; ±10 %',
       'compressibility about 1.0e-9 /Pa, from memory [M]; ±30 %',
     ],
   },
@@ -130,19 +130,19 @@ const AQUEOUS: Record<'pbs' | 'culture-medium' | 'culture-medium-serum', { name:
     name: 'PBS (1x)',
     factor: [1.01, 1.015, 1.02],
     density: 1005,
-    source: 'viscosity 1.01–1.02 × water at the same temperature [M, physics.md §2.3]',
+    source: 'viscosity 1.01–1.02 × water at the same temperature [M]',
   },
   'culture-medium': {
     name: 'culture medium, serum-free',
     factor: [1.0, 1.03, 1.08],
     density: 1007,
-    source: 'viscosity a few % above water at the same temperature [M, physics.md §2.3; measured data in Poon 2022]',
+    source: 'viscosity a few % above water at the same temperature [M; measured data in Poon 2022]',
   },
   'culture-medium-serum': {
     name: 'culture medium with 5–20 % serum',
     factor: [1.02, 1.1, 1.35],
     density: 1010,
-    source: 'viscosity rises with serum content; numbers [M], trend from Poon (2022) [S] (physics.md §2.3)',
+    source: 'viscosity rises with serum content; numbers [M], trend from Poon (2022) [S]',
     note: 'Serum-supplemented medium can be mildly shear-thinning (Sints et al. 2024): R then depends on flow rate.',
   },
 };
@@ -242,7 +242,7 @@ export function resolveFluid(spec: FluidSpec): FluidProperties {
         densityKgPerM3: density,
         ...aqueousExtras(tK),
         sources: [
-          `viscosity: Cheng (2008) formula [S] (physics.md §2.4); range ±${halfWidth * 100} % [P] (glycerol takes up water)`,
+          `viscosity: Cheng (2008) formula [S]; range ±${halfWidth * 100} % [P] (glycerol takes up water)`,
           'compressibility and density: mass-weighted mix of water (Kell 1975) and glycerol (2.1e-10 /Pa, 1261 kg/m³, from memory [M]); ±20 %',
         ],
         notes: cm > 0.6 ? ['Concentrated glycerol absorbs water from air; its viscosity drifts. Measure the lot.'] : [],

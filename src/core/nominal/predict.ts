@@ -52,7 +52,7 @@ function liquidItem(ctx: Context, e: PathElement, section: PathSection, volumeM3
   const k = ctx.fluid.compressibilityPerPa;
   ctx.compliances.push({
     element: e.label, jsonPath: e.origin.jsonPath, section, source: 'liquid',
-    method: `V·κ_T with V = ${(volumeM3 * 1e9).toPrecision(3)} µL (physics.md §3.2)`,
+    method: `V·κ_T with V = ${(volumeM3 * 1e9).toPrecision(3)} µL`,
     tag: ctx.fluid.compressibilityTag,
     complianceM3PerPa: { low: liquidCompliance(volumeM3, k.low), nominal: liquidCompliance(volumeM3, k.nominal), high: liquidCompliance(volumeM3, k.high) },
     counted,
@@ -65,7 +65,7 @@ function gasItem(ctx: Context, e: PathElement, section: PathSection, volumeM3: n
   const pv = ctx.fluid.vapourPressurePa ?? 0;
   ctx.compliances.push({
     element: e.label, jsonPath: e.origin.jsonPath, section, source: 'gas',
-    method: `isothermal V/p_abs at ${(p / 1e5).toFixed(3)} bar abs; low: adiabatic V/(γp), γ = ${AIR_HEAT_CAPACITY_RATIO}; high: vapour-saturated V/(p − p_v) (physics.md §3.3)`,
+    method: `isothermal V/p_abs at ${(p / 1e5).toFixed(3)} bar abs; low: adiabatic V/(γp), γ = ${AIR_HEAT_CAPACITY_RATIO}; high: vapour-saturated V/(p − p_v)`,
     tag: 'D',
     // Vapour bound only where it is defined (p_abs above the vapour pressure); otherwise isothermal.
     complianceM3PerPa: { low: gasCompliance(volumeM3, p, 'adiabatic'), nominal: gasCompliance(volumeM3, p), high: p > pv ? volumeM3 / (p - pv) : gasCompliance(volumeM3, p) },
@@ -83,7 +83,7 @@ function channelWallItem(ctx: Context, e: PathElement, section: PathSection, wid
     const a = body.deformationAlpha;
     ctx.compliances.push({
       element: e.label, jsonPath: e.origin.jsonPath, section, source: 'channel-wall',
-      method: `shallow-channel bulging α w² L / E, α ${a.low}–${a.high} (nominal ${a.nominal}), E ${(E.low / 1e6).toPrecision(3)}–${(E.high / 1e6).toPrecision(3)} MPa (Gervais et al. 2006; physics.md §3.6)`,
+      method: `shallow-channel bulging α w² L / E, α ${a.low}–${a.high} (nominal ${a.nominal}), E ${(E.low / 1e6).toPrecision(3)}–${(E.high / 1e6).toPrecision(3)} MPa (Gervais et al., Lab Chip 6, 500 (2006))`,
       tag: body.alphaTag === 'U' ? body.material.tag : 'M',
       complianceM3PerPa: {
         low: shallowChannelWallCompliance(span, lengthM, E.high, a.low),
@@ -99,7 +99,7 @@ function channelWallItem(ctx: Context, e: PathElement, section: PathSection, wid
   const nu = body.material.poisson;
   ctx.compliances.push({
     element: e.label, jsonPath: e.origin.jsonPath, section, source: 'channel-wall',
-    method: `thin-lid plate (1 − ν²) w⁵ L / (60 E t³), t = ${(t * 1e3).toPrecision(3)} mm, clamped (nominal) to simply supported (high); low 0 (physics.md §3.6)`,
+    method: `thin-lid plate (1 − ν²) w⁵ L / (60 E t³), t = ${(t * 1e3).toPrecision(3)} mm, clamped (nominal) to simply supported (high); low 0`,
     tag: 'D',
     complianceM3PerPa: {
       low: 0,
@@ -107,7 +107,7 @@ function channelWallItem(ctx: Context, e: PathElement, section: PathSection, wid
       high: lidPlateCompliance(span, lengthM, t, E.low, nu, 'simply-supported'),
     },
     counted,
-    note: 'Rigid body: an upper-bound estimate; usually negligible next to tubing or gas (physics.md §3.8).',
+    note: 'Rigid body: an upper-bound estimate; usually negligible next to tubing or gas.',
   });
 }
 
@@ -131,7 +131,7 @@ function walkElement(ctx: Context, e: PathElement, section: PathSection, counted
     case 'rectangular-channel': {
       liquidItem(ctx, e, section, e.widthM * e.heightM * e.lengthM, counted);
       channelWallItem(ctx, e, section, e.widthM, e.heightM, e.lengthM, counted);
-      return resistanceItem(ctx, e, section, 'exact rectangular series, 50 odd terms (physics.md §1.3)',
+      return resistanceItem(ctx, e, section, 'exact rectangular Fourier series, 50 odd terms (Bruus 2008, ch. 2)',
         rangeR(ctx, e.dimensionTolerance, (mu, s) => rectangularResistancePaSPerM3(mu, e.widthM * s, e.heightM * s, e.lengthM)));
     }
     case 'circular-channel': {
@@ -139,7 +139,7 @@ function walkElement(ctx: Context, e: PathElement, section: PathSection, counted
       const m = ctx.chip.body.material;
       ctx.compliances.push({
         element: e.label, jsonPath: e.origin.jsonPath, section, source: 'channel-wall',
-        method: `bore in a block (2π a² L / E)(1 + ν), E of ${m.label} (Lamé, b → ∞; physics.md §3.5)`,
+        method: `bore in a block (2π a² L / E)(1 + ν), E of ${m.label} (Lamé, b → ∞)`,
         tag: m.tag,
         complianceM3PerPa: {
           low: boreInBlockCompliance(e.diameterM, e.lengthM, m.modulusPa.high, m.poisson),
@@ -148,7 +148,7 @@ function walkElement(ctx: Context, e: PathElement, section: PathSection, counted
         },
         counted,
       });
-      return resistanceItem(ctx, e, section, 'Hagen–Poiseuille 8μL/(πa⁴) (physics.md §1.2)',
+      return resistanceItem(ctx, e, section, 'Hagen–Poiseuille 8μL/(πa⁴)',
         rangeR(ctx, e.dimensionTolerance, (mu, s) => circularResistancePaSPerM3(mu, e.diameterM * s, e.lengthM)));
     }
     case 'tubing': {
@@ -157,13 +157,13 @@ function walkElement(ctx: Context, e: PathElement, section: PathSection, counted
       const c = (E: number): number => lameTubeCompliance(e.innerDiameterM, e.outerDiameterM, e.lengthM, E, m.poisson, e.ends);
       ctx.compliances.push({
         element: e.label, jsonPath: e.origin.jsonPath, section, source: 'tubing-wall',
-        method: `Lamé thick-walled cylinder, ${e.ends} ends, ${m.label}, E ${fmtModulus(m.modulusPa.low)}–${fmtModulus(m.modulusPa.high)} (physics.md §3.5, §3.8)`,
+        method: `Lamé thick-walled cylinder, ${e.ends} ends, ${m.label}, E ${fmtModulus(m.modulusPa.low)}–${fmtModulus(m.modulusPa.high)} (Timoshenko & Goodier 1970, §33)`,
         tag: m.tag,
         complianceM3PerPa: { low: c(m.modulusPa.high), nominal: c(m.modulusPa.nominal), high: c(m.modulusPa.low) },
         counted,
-        ...(m.modulusPa.nominal < 1e8 ? { note: 'Soft tubing is non-linear above ~10 % strain and creeps: its C depends on pressure level and time scale (physics.md §3.5).' } : {}),
+        ...(m.modulusPa.nominal < 1e8 ? { note: 'Soft tubing is non-linear above ~10 % strain and creeps: its C depends on pressure level and time scale.' } : {}),
       });
-      return resistanceItem(ctx, e, section, 'Hagen–Poiseuille 8μL/(πa⁴) (physics.md §1.2)',
+      return resistanceItem(ctx, e, section, 'Hagen–Poiseuille 8μL/(πa⁴)',
         rangeR(ctx, e.dimensionTolerance, (mu, s) => circularResistancePaSPerM3(mu, e.innerDiameterM * s, e.lengthM)));
     }
     case 'chamber': {
@@ -172,7 +172,7 @@ function walkElement(ctx: Context, e: PathElement, section: PathSection, counted
       if (!e.box) return null;
       const b = e.box;
       channelWallItem(ctx, e, section, b.widthM, b.heightM, b.lengthM, counted);
-      return resistanceItem(ctx, e, section, 'exact rectangular series (physics.md §1.3)',
+      return resistanceItem(ctx, e, section, 'exact rectangular Fourier series (Bruus 2008, ch. 2)',
         rangeR(ctx, 0, (mu) => rectangularResistancePaSPerM3(mu, b.widthM, b.heightM, b.lengthM)));
     }
     case 'reservoir': {
@@ -259,7 +259,7 @@ export function predictNominal(chip: ChipDescription, setup: Setup, options: Pre
   const totalC = sumRanges(counted.map((c) => c.complianceM3PerPa));
   const tau: ValueRange = { low: totalC.low * thevenin.low, nominal: totalC.nominal * thevenin.nominal, high: totalC.high * thevenin.high };
   const notes = [
-    'All counted compliance is lumped at one node between the upstream section and the chip; for a long soft line the slowest true time constant is shorter (up to π²/4 = 2.47×; physics.md §3.7).',
+    'All counted compliance is lumped at one node between the upstream section and the chip; for a long soft line the slowest true time constant is shorter (up to π²/4 = 2.47×; see docs/chip-description.md).',
     'Ranges are bounds from stated property uncertainty, added bound by bound (a worst-case interval, not a confidence interval).',
   ];
   if (ctx.compliances.some((c) => c.tag === 'M' || c.tag === 'P')) {
