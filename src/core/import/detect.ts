@@ -205,8 +205,10 @@ export function detectLayout(sample: string, final: boolean, options: ImportOpti
   for (let i = 0; i < content.length; i++) {
     const line = content[i] as Line;
     const next = content[i + 1];
-    // a data line followed by another data line, or by a row of numbers with the wrong count (a ragged row)
-    if (isData(line) && (next === undefined || isData(next) || allNumbers(next))) {
+    // a data line followed by another data line, by a row of numbers with the wrong count (a ragged row), or
+    // by lines of which at least half are data (a bad row right after the first one)
+    const following = content.slice(i + 1, i + 11);
+    if (isData(line) && (next === undefined || isData(next) || allNumbers(next) || following.filter(isData).length * 2 >= following.length)) {
       firstData = i;
       break;
     }
