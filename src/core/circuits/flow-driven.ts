@@ -15,6 +15,7 @@ import { propagate } from './propagate';
 import {
   fitQualityWarnings,
   inconclusiveWarning,
+  LUMPED_NOTE,
   slowestTermIndex,
   slowTermNote,
   tauName,
@@ -64,6 +65,7 @@ export function estimateFlowDriven(input: FlowDrivenInput): CircuitEstimate {
     tauTermIndex: k,
     notes: [
       'R = Δp∞/ΔQ and C = τ/R (flow source: the node sees R alone).',
+      LUMPED_NOTE,
       ...slowTermNote(fit, k, 'Faster terms are taken as the pump or sensor lag, or a second compliant node (use the ladder setup for that).'),
     ],
     warnings,

@@ -25,6 +25,7 @@ import { propagate } from './propagate';
 import {
   fitQualityWarnings,
   inconclusiveWarning,
+  LUMPED_NOTE,
   slowestTermIndex,
   slowTermNote,
   tauName,
@@ -147,6 +148,7 @@ export function estimatePressureDriven(input: PressureDrivenInput): PressureDriv
       'R_total = Δp/ΔQ∞; τ = C·R_up·R_down/(R_up + R_down) (pressure source: the node sees R_up ∥ R_down).',
       ...(source === 'inlet-jump' ? ['R_up = Δp/(jump of the inlet flow at t = 0⁺), extrapolated from the slow term.'] : []),
       ...(source === 'given' ? ['R_up was given (chip description or --upstream-resistance).'] : []),
+      LUMPED_NOTE,
       ...slowTermNote(fit, k, 'Faster terms are taken as the pressure source lag (regulator, head settling), not chip compliance.'),
     ],
     warnings,

@@ -31,6 +31,14 @@ export function slowTermNote(fit: TransientFit, termIndex: number, fastMeaning: 
   ];
 }
 
+/**
+ * The standing caveat of every lumped estimate (physics.md §3.7 [D]): a compliance spread along a
+ * long soft line relaxes with τ₁ = 4RC/π² (flow-driven) or RC/π² (pressure-driven), so a
+ * single-node C from the slowest τ is about 4/π² ≈ 0.41 of the line's total.
+ */
+export const LUMPED_NOTE =
+  'Lumped model: if the compliance is spread along a long soft tube or channel, C from the slowest τ is about 0.41 of its total (physics.md §3.7).';
+
 /** Warnings about the fit that limit what the derived R and C mean. */
 export function fitQualityWarnings(fit: TransientFit): Warning[] {
   const out: Warning[] = [];

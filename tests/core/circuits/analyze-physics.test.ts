@@ -109,6 +109,39 @@ describe('addPhysics on analyzeRecording results', () => {
     expect(covered).toBeGreaterThanOrEqual(8);
   });
 
+  it('addPhysics adds the volume-balance C beside the fit when the outlet flow is logged too (§3.1, §4.2)', () => {
+    const [R, C] = [2e13, 1e-13]; // τ = 2 s
+    const tau = R * C;
+    const times = [0, 20, 40];
+    const levels = [0, 1e-10, 2e-10];
+    const rate = 50;
+    const n = 60 * rate;
+    const rng = createRng(17);
+    const t = new Float64Array(n);
+    const qs = new Float64Array(n);
+    const p = new Float64Array(n);
+    const qOut = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      const ti = i / rate;
+      t[i] = ti;
+      qs[i] = programAt(times, levels, ti);
+      let pi = 0;
+      for (let k = 1; k < times.length; k++) if (ti >= times[k]!) pi += R * (levels[k]! - levels[k - 1]!) * (1 - Math.exp(-(ti - times[k]!) / tau));
+      p[i] = pi + 10 * rng.normal();
+      qOut[i] = pi / R + 1e-12 * rng.normal(); // outlet flow Q_out = p/R (§4.2)
+    }
+    const rec = recording(t, [channel('flow_setpoint', 'flow_setpoint', qs), channel('pressure', 'pressure', p), channel('flow_out', 'flow', qOut)]);
+    const out = addPhysics(analyzeRecording(rec, { fit: { terms: 1 } }, defaultFitter), rec, { ambientPressurePa: ATM });
+    expect(out.steps).toHaveLength(2);
+    for (const s of out.steps) {
+      const fb = s.physics.flow_balance as { compliance_m3_per_Pa: number; compliance_ci95: [number, number] } | null;
+      expect(fb).not.toBeNull();
+      expect(Math.abs(fb!.compliance_m3_per_Pa / C - 1)).toBeLessThan(0.05);
+      expect(fb!.compliance_ci95[0]).toBeLessThan(C);
+      expect(fb!.compliance_ci95[1]).toBeGreaterThan(C);
+    }
+  });
+
   /**
    * Flow-driven node loaded by trapped air: C(p) = C_rigid + V_atm·p_atm/p_abs² (Boyle, §3.3),
    * C(p)·dp/dt = Q − p/R integrated by RK4 here. Small pressure steps around several levels, so
