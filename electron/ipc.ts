@@ -70,6 +70,8 @@ export interface LagbenchApi {
   openLogs(): Promise<LoadedFile[] | null>;
   /** Reads logs by path. Main only reads paths the user chose before (dialogs, recent files, an opened work file). */
   readLogs(paths: string[]): Promise<LoadedFile[]>;
+  /** Lets the user pick a chip description (JSON); null when cancelled. */
+  openChip(): Promise<LoadedFile | null>;
   /** Lets the user pick a saved work file; null when cancelled. */
   openWork(): Promise<LoadedFile | null>;
   /** Saves a work file (JSON text) atomically where the user chooses. */
@@ -88,6 +90,7 @@ export const CHANNELS = {
   openLogs: 'lagbench:open-logs',
   readLogs: 'lagbench:read-logs',
   openWork: 'lagbench:open-work',
+  openChip: 'lagbench:open-chip',
   saveWork: 'lagbench:save-work',
   saveReport: 'lagbench:save-report',
   listRecent: 'lagbench:list-recent',
@@ -104,6 +107,7 @@ export interface ChannelArgs {
   'lagbench:open-logs': [];
   'lagbench:read-logs': [paths: string[]];
   'lagbench:open-work': [];
+  'lagbench:open-chip': [];
   'lagbench:save-work': [suggestedName: string, json: string];
   'lagbench:save-report': [suggestedName: string, html: string];
   'lagbench:list-recent': [];
@@ -114,6 +118,7 @@ export interface ChannelResults {
   'lagbench:open-logs': LoadedFile[] | null;
   'lagbench:read-logs': LoadedFile[];
   'lagbench:open-work': LoadedFile | null;
+  'lagbench:open-chip': LoadedFile | null;
   'lagbench:save-work': SaveResult;
   'lagbench:save-report': SaveResult;
   'lagbench:list-recent': RecentEntry[];
@@ -150,6 +155,7 @@ export function validateArgs<C extends InvokeChannel>(channel: C, args: unknown[
   switch (channel) {
     case CHANNELS.openLogs:
     case CHANNELS.openWork:
+    case CHANNELS.openChip:
     case CHANNELS.listRecent:
     case CHANNELS.clearRecent:
       if (args.length !== 0) fail(`expects no arguments, got ${args.length}`);

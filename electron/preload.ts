@@ -10,6 +10,7 @@ const api: LagbenchApi = {
   openLogs: () => ipcRenderer.invoke(CHANNELS.openLogs),
   readLogs: (paths) => ipcRenderer.invoke(CHANNELS.readLogs, paths),
   openWork: () => ipcRenderer.invoke(CHANNELS.openWork),
+  openChip: () => ipcRenderer.invoke(CHANNELS.openChip),
   saveWork: (suggestedName, json) => ipcRenderer.invoke(CHANNELS.saveWork, suggestedName, json),
   saveReport: (suggestedName, html) => ipcRenderer.invoke(CHANNELS.saveReport, suggestedName, html),
   listRecent: () => ipcRenderer.invoke(CHANNELS.listRecent),

@@ -50,6 +50,7 @@ const LOG_FILTERS: FileFilter[] = [
   { name: 'All files', extensions: ['*'] },
 ];
 const WORK_FILTERS: FileFilter[] = [{ name: 'Lagbench work', extensions: ['lagbench.json', 'json'] }];
+const CHIP_FILTERS: FileFilter[] = [{ name: 'Chip description (JSON)', extensions: ['json'] }];
 const REPORT_FILTERS: FileFilter[] = [{ name: 'HTML report', extensions: ['html'] }];
 
 /** A readable refusal, shown by the renderer as is. */
@@ -111,6 +112,14 @@ export function createHandlers(deps: HandlerDeps): Handlers {
       for (const ref of referencedInputPaths(new TextDecoder().decode(file.bytes))) deps.allowlist.allow(ref);
       deps.recent.add(p, 'work', deps.nowMs());
       return file;
+    },
+
+    async [CHANNELS.openChip]() {
+      const r = await deps.dialog.showOpenDialog({ title: 'Open a chip description', filters: CHIP_FILTERS, properties: ['openFile'] });
+      const p = r.filePaths[0];
+      if (r.canceled || p === undefined) return null;
+      deps.allowlist.allow(p);
+      return readChecked(deps, p, MAX_WORK_BYTES);
     },
 
     async [CHANNELS.saveWork](suggestedName: string, json: string) {

@@ -1,6 +1,6 @@
 /**
  * The input paths a saved work file refers to, read without trusting it: anything that is not
- * a list of `{ path: string }` yields no paths (the renderer then reports the file as unreadable).
+ * a list of `{ path: string }` (inputs) or `{ path }` (chip) yields no paths (the renderer then reports the file as unreadable).
  */
 export function referencedInputPaths(workText: string): string[] {
   let data: unknown;
@@ -17,5 +17,8 @@ export function referencedInputPaths(workText: string): string[] {
     const p = typeof item === 'object' && item !== null ? (item as { path?: unknown }).path : undefined;
     if (typeof p === 'string' && p.length > 0 && p.length <= 4096 && !p.includes('\u0000')) out.push(p);
   }
+  const chip = (data as { chip?: unknown }).chip;
+  const chipPath = typeof chip === 'object' && chip !== null ? (chip as { path?: unknown }).path : undefined;
+  if (typeof chipPath === 'string' && chipPath.length > 0 && chipPath.length <= 4096 && !chipPath.includes('\u0000')) out.push(chipPath);
   return out;
 }

@@ -41,7 +41,7 @@ describe('hardenContents', () => {
       on: (event: string, l: (e: { preventDefault(): void }, url?: string) => void) => {
         listeners[event] = l;
       },
-      setWindowOpenHandler: (h) => {
+      setWindowOpenHandler: (h: (d: { url: string }) => { action: string }) => {
         openHandler = h;
       },
     } as never);

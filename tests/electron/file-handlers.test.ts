@@ -81,6 +81,20 @@ describe('createHandlers', () => {
     expect((await h[CHANNELS.readLogs](['/d/flow.csv']))[0]?.name).toBe('flow.csv');
   });
 
+  it('openChip returns the chosen chip description and allows it to be re-read', async () => {
+    const { deps } = fakeDeps({ '/c/chip.json': '{}' }, { open: ['/c/chip.json'] });
+    const h = createHandlers(deps);
+    expect((await h[CHANNELS.openChip]())?.name).toBe('chip.json');
+    expect(deps.allowlist.allows('/c/chip.json')).toBe(true);
+  });
+
+  it('openWork also allows the chip description the work file references', async () => {
+    const work = JSON.stringify({ inputs: [], chip: { path: '/c/mixer.json' } });
+    const { deps } = fakeDeps({ '/w.json': work }, { open: ['/w.json'] });
+    await createHandlers(deps)[CHANNELS.openWork]();
+    expect(deps.allowlist.allows('/c/mixer.json')).toBe(true);
+  });
+
   it('saveReport writes atomically to the chosen path and adds .html to the suggestion', async () => {
     const { deps, written } = fakeDeps({});
     let proposed = '';

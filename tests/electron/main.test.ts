@@ -55,7 +55,7 @@ describe('main', () => {
     expect(windows[0]?.url).toBe('lagbench-app://ui/index.html');
     expect(schemes).toEqual([{ scheme: 'lagbench-app', privileges: { standard: true, secure: true, supportFetchAPI: true } }]);
     expect([...handlers.keys()].sort()).toEqual([
-      'lagbench:clear-recent', 'lagbench:list-recent', 'lagbench:open-logs', 'lagbench:open-work', 'lagbench:read-logs', 'lagbench:save-report', 'lagbench:save-work',
+      'lagbench:clear-recent', 'lagbench:list-recent', 'lagbench:open-chip', 'lagbench:open-logs', 'lagbench:open-work', 'lagbench:read-logs', 'lagbench:save-report', 'lagbench:save-work',
     ]);
   });
 

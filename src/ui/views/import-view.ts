@@ -1,0 +1,135 @@
+/**
+ * Import view: how each file and column was read (delimiter, decimal sign, time format, quantity,
+ * unit, how each was recognised), with overrides that re-import the file.
+ */
+import type { App } from '../app';
+import type { ColumnOverride, Delimiter, ImportOptions, ImportReport, TimeFormat } from '../../core/import/types';
+import type { Quantity } from '../../core/recording/types';
+import { clear, el } from '../helpers/dom';
+import { fmt, fmtBytes, QUANTITY_LABEL } from '../helpers/format';
+import { button, emptyState, notice, viewHead, warningsList } from './common';
+
+const DELIMITERS: Array<[Delimiter | '', string]> = [['', 'detect'], [',', 'comma ,'], [';', 'semicolon ;'], ['\t', 'tab'], ['whitespace', 'spaces'], ['none', 'none (one column)']];
+const DECIMALS: Array<['' | '.' | ',', string]> = [['', 'detect'], ['.', 'point 1.5'], [',', 'comma 1,5']];
+const TIME_FORMATS: Array<[TimeFormat | '', string]> = [['', 'detect'], ['seconds', 'seconds'], ['milliseconds', 'milliseconds'], ['minutes', 'minutes'], ['hours', 'hours'], ['elapsed', 'elapsed hh:mm:ss'], ['clock', 'clock time of day'], ['iso', 'ISO 8601 timestamp']];
+const QUANTITIES: Array<Quantity | 'ignore'> = ['pressure', 'flow', 'pressure_setpoint', 'flow_setpoint', 'hydrostatic_head', 'other', 'ignore'];
+const DELIM_NAME: Record<Delimiter, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab', whitespace: 'spaces', none: 'none' };
+const RECOGNITION: Record<string, string> = { 'header-name': 'header name', 'header-unit': 'unit in header', 'units-row': 'units row', option: 'your override', position: 'column position', none: '—' };
+
+function select<T extends string>(label: string, options: Array<[T, string]>, value: string, testid: string): HTMLSelectElement {
+  const s = el('select', { 'aria-label': label, 'data-testid': testid });
+  for (const [v, text] of options) s.append(el('option', { value: v, text, selected: v === value }));
+  return s;
+}
+
+function fileCard(app: App, index: number, report: ImportReport): HTMLElement {
+  const s = app.state;
+  const file = s.files[index];
+  const opts: ImportOptions = { ...(s.importOptions[index] ?? {}) };
+  const d = report.dialect;
+  const delim = select('Delimiter', DELIMITERS, opts.delimiter ?? '', `delimiter-${index}`);
+  const dec = select('Decimal sign', DECIMALS, opts.decimal ?? '', `decimal-${index}`);
+  const tf = select('Time format', TIME_FORMATS, opts.timeFormat ?? '', `timeformat-${index}`);
+  const skip = el('input', { type: 'checkbox', checked: !!opts.skipBadRows, id: `skip-${index}` });
+
+  const colControls: Array<{ column: number; q: HTMLSelectElement; unit: HTMLInputElement }> = [];
+  const rows = report.columns.map((c) => {
+    const override = opts.columns?.find((o) => o.column === c.column);
+    const current = c.role === 'time' ? 'time' : c.role === 'ignored' ? 'ignore' : (c.quantity ?? 'other');
+    const qSel = el('select', { 'aria-label': `Quantity of column ${c.column}` });
+    if (c.role === 'time') qSel.append(el('option', { value: 'time', text: 'time', selected: true }));
+    else for (const q of QUANTITIES) qSel.append(el('option', { value: q, text: q === 'ignore' ? 'ignore' : QUANTITY_LABEL[q], selected: (override?.quantity ?? current) === q }));
+    qSel.disabled = c.role === 'time';
+    const unit = el('input', { type: 'text', value: override?.unit ?? c.unit, 'aria-label': `Unit of column ${c.column}`, size: 8 });
+    unit.disabled = c.role === 'time';
+    if (c.role !== 'time') colControls.push({ column: c.column, q: qSel, unit });
+    return el('tr', {},
+      el('td', { class: 'num', text: String(c.column) }),
+      el('td', { class: 'mono', text: c.header || '(none)' }),
+      el('td', {}, qSel),
+      el('td', {}, unit),
+      el('td', { class: 'num', text: c.role === 'time' ? d.timeFormat : Number.isFinite(c.factorToSi) ? fmt(c.factorToSi, 6) : '—' }),
+      el('td', { class: 'mono', text: c.channelName ?? (c.role === 'time' ? 'time_s' : '—') }),
+      el('td', { class: 'small muted', text: `${RECOGNITION[c.quantityFrom] ?? c.quantityFrom} / ${RECOGNITION[c.unitFrom] ?? c.unitFrom}` }),
+    );
+  });
+
+  const apply = button('Apply and re-read', () => {
+    const next: ImportOptions = {};
+    if (delim.value) next.delimiter = delim.value as Delimiter;
+    if (dec.value) next.decimal = dec.value as '.' | ',';
+    if (tf.value) next.timeFormat = tf.value as TimeFormat;
+    if (skip.checked) next.skipBadRows = true;
+    const cols: ColumnOverride[] = [];
+    for (const cc of colControls) {
+      const orig = report.columns.find((c) => c.column === cc.column);
+      const origQ = orig?.role === 'ignored' ? 'ignore' : (orig?.quantity ?? 'other');
+      if (cc.q.value !== origQ || cc.unit.value !== (orig?.unit ?? '')) cols.push({ column: cc.column, quantity: cc.q.value as Quantity | 'ignore', ...(cc.unit.value ? { unit: cc.unit.value } : {}) });
+    }
+    if (cols.length) next.columns = cols;
+    s.importOptions[index] = next;
+    void app.importFiles();
+  }, 'btn primary small', { 'data-testid': `apply-import-${index}` });
+  const reset = button('Reset to detected', () => {
+    s.importOptions[index] = {};
+    void app.importFiles();
+  }, 'btn small');
+
+  return el('section', { class: 'panel file-card', 'aria-label': `Import of ${report.source}` },
+    el('h3', {}, el('span', { text: file?.name ?? report.source }), el('span', { class: 'muted small', text: `${fmtBytes(report.bytes)} · ${report.rows.toLocaleString('en')} rows${report.skippedRows ? ` · ${report.skippedRows} skipped` : ''}` })),
+    el('div', { class: 'hash', text: `SHA-256 ${file?.sha256 ?? ''}` }),
+    el('dl', { class: 'kv', 'data-testid': `dialect-${index}` },
+      el('dt', { text: 'Delimiter' }), el('dd', { text: DELIM_NAME[d.delimiter] }),
+      el('dt', { text: 'Decimal sign' }), el('dd', { text: d.decimal === '.' ? 'point (.)' : 'comma (,)' }),
+      el('dt', { text: 'Time format' }), el('dd', { text: d.timeFormat }),
+      el('dt', { text: 'Header' }), el('dd', { text: d.headerLine === null ? 'none' : `line ${d.headerLine}${d.headerRows === 2 ? ' + units row' : ''}` }),
+      el('dt', { text: 'Text' }), el('dd', { text: `${d.lineEnding}${d.hadBom ? ', BOM' : ''}${d.preambleLines ? `, ${d.preambleLines} preamble line(s)` : ''}` }),
+      ...(d.forced.length ? [el('dt', { text: 'Overridden' }), el('dd', { text: d.forced.join(', ') })] : []),
+    ),
+    el('div', { class: 'dialect' },
+      el('label', { class: 'field' }, el('span', { text: 'Delimiter' }), delim),
+      el('label', { class: 'field' }, el('span', { text: 'Decimal sign' }), dec),
+      el('label', { class: 'field' }, el('span', { text: 'Time format' }), tf),
+      el('label', { class: 'inline small', for: `skip-${index}` }, skip, 'Skip bad rows (counted)'),
+    ),
+    el('table', { 'data-testid': `columns-${index}` },
+      el('thead', {}, el('tr', {}, ...['#', 'Header', 'Quantity', 'Unit', 'Factor to SI', 'Channel', 'Recognised by'].map((h) => el('th', { text: h })))),
+      el('tbody', {}, ...rows),
+    ),
+    el('div', { class: 'inline' }, apply, reset),
+    Object.keys(report.metadata).length ? el('details', {}, el('summary', { text: `Metadata (${Object.keys(report.metadata).length})` }), el('dl', { class: 'kv' }, ...Object.entries(report.metadata).flatMap(([k, v]) => [el('dt', { text: k }), el('dd', { text: v })]))) : null,
+    report.warnings.length ? notice('warn', `${report.warnings.length} warning(s) while reading:`) : null,
+    warningsList(report.warnings),
+  );
+}
+
+export function renderImportView(app: App, root: HTMLElement): void {
+  clear(root);
+  const s = app.state;
+  root.append(viewHead('h-import', 'Import', 'Open or drop one or two logs of one run. Check how every column was read; override anything that is wrong.'));
+  if (s.capabilities && !s.capabilities.importer) root.append(notice('unavailable', 'The log importer is not available yet in this build.'));
+  if (!s.files.length) {
+    root.append(emptyState('No log open yet', 'Drop a CSV/TSV/TXT log anywhere on this window, or open one. Two logs of one run (e.g. a pressure logger and a flow logger) can be opened together.',
+      button('Open logs…', () => void app.openLogsDialog(), 'btn primary')));
+    return;
+  }
+  if (!s.recording) {
+    root.append(notice('info', `Reading ${s.files.map((f) => f.name).join(', ')}… (or see the status bar for a problem)`));
+    return;
+  }
+  const r = s.recording;
+  const rate = r.sampleCount > 1 && r.durationS > 0 ? (r.sampleCount - 1) / r.durationS : Number.NaN;
+  root.append(el('div', { class: 'panel' },
+    el('dl', { class: 'kv', 'data-testid': 'import-summary' },
+      el('dt', { text: 'Samples' }), el('dd', { text: r.sampleCount.toLocaleString('en') }),
+      el('dt', { text: 'Duration' }), el('dd', { text: `${fmt(r.durationS, 5)} s` }),
+      el('dt', { text: 'Mean sample rate' }), el('dd', { text: `${fmt(rate, 4)} Hz` }),
+      el('dt', { text: 'Start' }), el('dd', { text: r.startEpochMs === null ? 'not in the log' : new Date(r.startEpochMs).toISOString() }),
+      el('dt', { text: 'Channels' }), el('dd', { text: r.channels.map((c) => `${c.name} (${QUANTITY_LABEL[c.quantity]}, from "${c.originalHeader}")`).join('; ') }),
+      el('dt', { text: 'Suggested setup' }), el('dd', { text: `${r.suggestedSetup} — ${r.setupReason}` }),
+    ),
+    r.warnings.length ? warningsList(r.warnings) : null,
+    el('div', { class: 'inline' }, button('Continue to the recording →', () => app.show('recording'), 'btn primary')),
+  ));
+  r.reports.forEach((rep, i) => root.append(fileCard(app, i, rep)));
+}

@@ -1,0 +1,209 @@
+// The renderer in a real browser (Debian's Chromium via playwright-core; GUIDE §4): open a log, see the
+// steps and fits, move a step, read the diagnosis, export a self-contained report. Screenshots of each
+// main view go to test-artifacts/screenshots/ (git-ignored).
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { PRESSURE_SAFETY_CAUTION } from '../../src/core/safety';
+import { rendererDir, serveStatic, type StaticServer } from './static-server';
+import { flowDrivenRun } from './synthetic-log';
+
+const CHROMIUM = '/usr/bin/chromium';
+const SHOTS = join(process.cwd(), 'test-artifacts', 'screenshots');
+const haveBrowser = existsSync(CHROMIUM);
+if (!haveBrowser) console.warn(`Browser tests skipped: ${CHROMIUM} is missing (apt-get install -y chromium).`);
+
+describe.skipIf(!haveBrowser)('desktop renderer in Chromium', () => {
+  let server: StaticServer;
+  let context: BrowserContext;
+  let page: Page;
+  let work: string;
+  const run = flowDrivenRun();
+  const errors: string[] = [];
+
+  const shot = async (name: string): Promise<void> => {
+    await page.screenshot({ path: join(SHOTS, `${name}.png`), fullPage: false });
+  };
+  const analysisRuns = async (): Promise<number> => Number((await page.getAttribute('html', 'data-analysis-runs')) ?? '0');
+  const waitForRunsAbove = async (n: number): Promise<void> => {
+    await page.waitForFunction((k) => Number(document.documentElement.dataset.analysisRuns ?? '0') > k, n, { timeout: 60_000 });
+  };
+
+  beforeAll(async () => {
+    if (!existsSync(join(rendererDir, 'index.html'))) throw new Error('dist/renderer is missing: run `npm run test:e2e` (it builds the app first).');
+    mkdirSync(SHOTS, { recursive: true });
+    work = mkdtempSync(join(tmpdir(), 'lagbench-e2e-'));
+    writeFileSync(join(work, 'flow-run.csv'), run.text);
+    server = await serveStatic(rendererDir);
+    context = await chromium.launchPersistentContext(join(work, 'profile'), {
+      executablePath: CHROMIUM,
+      headless: true,
+      args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+      viewport: { width: 1280, height: 800 },
+      acceptDownloads: true,
+      colorScheme: 'light',
+    });
+    page = context.pages()[0] ?? (await context.newPage());
+    page.on('pageerror', (e) => errors.push(`pageerror: ${e.message}`));
+    page.on('console', (m) => {
+      if (m.type() === 'error') errors.push(`console: ${m.text()}`);
+    });
+    // No request may leave 127.0.0.1 (no remote content).
+    await context.route(/^(?!http:\/\/127\.0\.0\.1|data:|blob:)/, (route) => {
+      errors.push(`remote request: ${route.request().url()}`);
+      return route.abort();
+    });
+    await page.goto(server.url);
+    await page.waitForSelector('html[data-ready="true"]');
+  });
+
+  afterAll(async () => {
+    await context?.close();
+    await server?.close();
+    if (work) rmSync(work, { recursive: true, force: true });
+  });
+
+  it('loads with a strict CSP and an empty import view', async () => {
+    const csp = await page.getAttribute('meta[http-equiv="Content-Security-Policy"]', 'content');
+    expect(csp).toContain("default-src 'self'");
+    expect(csp).not.toContain('unsafe');
+    await expect(page.textContent('#view-import')).resolves.toContain('No log open yet');
+    await shot('00-start');
+  });
+
+  it('opening a log shows how each column was read', async () => {
+    await page.setInputFiles('#file-input-logs', join(work, 'flow-run.csv'));
+    await page.waitForSelector('[data-testid="columns-0"]');
+    const dialect = await page.textContent('[data-testid="dialect-0"]');
+    expect(dialect).toContain('semicolon');
+    expect(dialect).toContain('seconds');
+    const columns = await page.textContent('[data-testid="columns-0"]');
+    expect(columns).toContain('pressure [mbar]');
+    expect(columns).toContain('mbar');
+    expect(await page.inputValue('[data-testid="columns-0"] tbody tr:nth-child(3) input')).toBe('mbar');
+    await waitForRunsAbove(0);
+    await shot('01-import');
+  });
+
+  it('the recording view marks every step of the synthetic run', async () => {
+    await page.click('#nav-recording');
+    await page.waitForSelector('[data-testid="recording-chart"]');
+    const items = await page.$$('[data-testid^="step-item-"]');
+    expect(items).toHaveLength(run.onsetsS.length);
+    const onsets = await page.$$eval('[data-testid^="step-item-"] .mono', (els) => els.map((e) => parseFloat(e.textContent ?? '')));
+    // Detected onsets within one sample (0.1 s) of the programmed ones (our own synthetic data).
+    onsets.forEach((t, i) => expect(Math.abs(t - (run.onsetsS[i] as number))).toBeLessThanOrEqual(0.11));
+    await expect(page.isVisible('[data-testid="pressure-caution"]')).resolves.toBe(true);
+    await shot('02-recording');
+  });
+
+  it('each step fit reports a τ whose 95 % CI contains the true τ', async () => {
+    await page.click('#nav-steps');
+    for (let i = 0; i < run.onsetsS.length; i++) {
+      await page.click(`[data-testid="step-tab-${i}"]`);
+      await page.waitForSelector('[data-testid="tau-ci-0"]');
+      const lo = Number(await page.getAttribute('[data-testid="tau-ci-0"]', 'data-lo'));
+      const hi = Number(await page.getAttribute('[data-testid="tau-ci-0"]', 'data-hi'));
+      // True τ = R·C = 4 s by construction (synthetic-log.ts).
+      expect(lo, `step ${i + 1}`).toBeLessThan(run.tauS);
+      expect(hi, `step ${i + 1}`).toBeGreaterThan(run.tauS);
+      expect(await page.textContent('[data-testid="settled"]')).toBe('settled');
+    }
+    await page.click('[data-testid="step-tab-1"]');
+    await page.waitForSelector('[data-testid="residual-chart"]');
+    await shot('03-step-fit');
+  });
+
+  it('moving a step with the keyboard refits it', async () => {
+    await page.click('[data-testid="step-tab-1"]');
+    const tauBefore = Number(await page.getAttribute('[data-testid="tau-value-0"]', 'data-si'));
+    await page.click('#nav-recording');
+    await page.click('[data-testid="step-item-1"]');
+    const runs = await analysisRuns();
+    // Four nudges of duration/500 (0.78 s each here): the window now starts ≈ 0.8 τ into the transient.
+    for (let k = 0; k < 4; k++) await page.keyboard.press('ArrowRight');
+    await waitForRunsAbove(runs);
+    const moved = parseFloat((await page.textContent('[data-testid="step-item-1"] .mono')) ?? '');
+    expect(moved).toBeGreaterThan((run.onsetsS[1] as number) + 3);
+    await expect(page.textContent('[data-testid="step-item-1"]')).resolves.toContain('edited');
+    await page.click('#nav-steps');
+    await page.click('[data-testid="step-tab-1"]');
+    const tauAfter = Number(await page.getAttribute('[data-testid="tau-value-0"]', 'data-si'));
+    expect(tauAfter).not.toBe(tauBefore);
+    // A first-order response has the same τ from any start inside the window: the refit still finds it.
+    expect(Number(await page.getAttribute('[data-testid="tau-ci-0"]', 'data-lo'))).toBeLessThan(run.tauS);
+    expect(Number(await page.getAttribute('[data-testid="tau-ci-0"]', 'data-hi'))).toBeGreaterThan(run.tauS);
+    await page.click('#nav-recording');
+    await shot('04-step-moved');
+  });
+
+  it('adding and deleting a step by time works from the keyboard', async () => {
+    const runs = await analysisRuns();
+    await page.fill('[data-testid="add-step-input"]', '100');
+    await page.press('[data-testid="add-step-input"]', 'Enter');
+    await waitForRunsAbove(runs);
+    expect(await page.$$('[data-testid^="step-item-"]')).toHaveLength(run.onsetsS.length + 1);
+    const runs2 = await analysisRuns();
+    await page.focus('[data-testid="step-list"]');
+    await page.keyboard.press('Delete');
+    await waitForRunsAbove(runs2);
+    expect(await page.$$('[data-testid^="step-item-"]')).toHaveLength(run.onsetsS.length);
+  });
+
+  it('with a chip description the diagnosis compares fitted and nominal compliance', async () => {
+    const runs = await analysisRuns();
+    const chooser = page.waitForEvent('filechooser');
+    await page.click('#btn-chip');
+    await (await chooser).setFiles(join(process.cwd(), 'sample-logs', 'chips', 'pdms-mixer.json'));
+    await waitForRunsAbove(runs);
+    await page.click('#nav-diagnosis');
+    await page.waitForSelector('[data-testid="breakdown-chart"]');
+    const summary = await page.textContent('[data-testid="compliance-summary"]');
+    expect(summary).toContain('Nominal C');
+    expect(await page.isVisible('[data-testid="pressure-caution"]')).toBe(true);
+    await shot('05-diagnosis');
+  });
+
+  it('exports a self-contained report with the caution', async () => {
+    await page.click('#nav-report');
+    const download = page.waitForEvent('download');
+    await page.click('[data-testid="export-report"]');
+    const d = await download;
+    const html = readFileSync((await d.path()) as string, 'utf8');
+    expect(d.suggestedFilename()).toBe('flow-run-report.html');
+    expect(html).not.toMatch(/https?:\/\//);
+    expect(html).not.toMatch(/<script/i);
+    expect(html).toContain(PRESSURE_SAFETY_CAUTION.replace(/'/g, '&#39;'));
+    expect(html).toMatch(/<img alt="Recording with step markers" src="data:image\/png;base64,/);
+    writeFileSync(join(SHOTS, '..', 'report.html'), html);
+    await shot('06-report');
+  });
+
+  it('saves the work with input hashes and the manual step edits', async () => {
+    const download = page.waitForEvent('download');
+    await page.click('[data-testid="save-work"]');
+    const d = await download;
+    const work = JSON.parse(readFileSync((await d.path()) as string, 'utf8'));
+    expect(work.format).toBe('lagbench-work');
+    expect(work.inputs[0].sha256).toMatch(/^[0-9a-f]{64}$/);
+    expect(work.stepEdits.map((e: { action: string }) => e.action)).toEqual(['move', 'add', 'delete']);
+    expect(work.chip.name).toBe('pdms-mixer.json');
+  });
+
+  it('the dark theme toggle restyles the views', async () => {
+    await page.click('#btn-theme');
+    expect(await page.getAttribute('html', 'data-theme')).toBe('dark');
+    await page.click('#nav-steps');
+    await page.waitForSelector('[data-testid="fit-chart"]');
+    await shot('07-step-fit-dark');
+    await page.click('#nav-recording');
+    await shot('08-recording-dark');
+    await page.click('#btn-theme');
+  });
+
+  it('produced no page errors and no remote requests', () => {
+    expect(errors).toEqual([]);
+  });
+});
