@@ -50,7 +50,9 @@ export default tseslint.config(
       '@typescript-eslint/no-restricted-imports': ['error', {
         patterns: [
           layer('src/ui runs in the sandboxed renderer: no Node built-ins.', nodeBuiltins),
-          layer('src/ui may import src/core and types from electron/ipc.ts only.', ['**/io/**', '**/cli/**', 'electron', 'better-sqlite3', '**/electron/main*', '**/electron/preload*']),
+          layer('src/ui may import src/core and types from electron/ipc.ts only.', ['**/io/**', '**/cli/**', 'better-sqlite3', '**/electron/main*', '**/electron/preload*', '**/electron/handlers/**']),
+          // The bare `electron` module only (a plain 'electron' pattern would also block ../electron/ipc).
+          { regex: '^electron(/.*)?$', message: 'Layer rule (DEVELOPERS.md): src/ui runs in the sandboxed renderer: no electron module.' },
         ],
       }],
     },
