@@ -87,4 +87,13 @@ describe('water properties at 1 atm', () => {
     expect(rel(waterVapourPressurePa(500), 0.263889776e7)).toBeLessThan(1e-8);
     expect(rel(waterVapourPressurePa(600), 0.123443146e8)).toBeLessThan(1e-8);
   });
+
+  it('waterViscosityPaS agrees with the Kestin et al. (1978) relative formula within 0.06 % at 0–40 °C', () => {
+    // physics.md §2.2e [M form, checked N]: log10(μ_t/μ_20) = ((20 − t)/(t + 96))(1.2364 − 1.37e-3 (20 − t) + 5.7e-6 (20 − t)²), μ_20 = 1.0016 mPa·s.
+    for (let t = 0; t <= 40; t += 5) {
+      const d = 20 - t;
+      const kestin = 1.0016e-3 * 10 ** ((d / (t + 96)) * (1.2364 - 1.37e-3 * d + 5.7e-6 * d * d));
+      expect(rel(waterViscosityPaS(K(t)), kestin)).toBeLessThan(6e-4);
+    }
+  });
 });
