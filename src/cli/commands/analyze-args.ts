@@ -1,11 +1,15 @@
-/** Options of `lagbench analyze` (besides the importer's), parsed and checked in one place. */
+/**
+ * Options of `lagbench analyze` besides the importer's (src/cli/import-options.ts): their specs for
+ * parseCommandArgs and their translation into checked values. Every mistake is a UsageError (exit 2).
+ */
+import { parseResistance } from '../../core/circuits/parse-resistance';
 import type { RobustLoss } from '../../core/fit/types';
 import type { Setup } from '../../core/steps/types';
 import { factorToSi, knownUnitsSentence, lookupUnit, type UnitKind } from '../../core/units/index';
+import { booleanOption, numberOption, stringOption, type OptionSpecs, type OptionValues } from '../args';
 import { UsageError } from '../io';
 
 export interface AnalyzeCliOptions {
-  files: string[];
   setup?: Setup;
   stepsFile?: string;
   terms: 1 | 2 | 3 | 'auto';
@@ -21,11 +25,38 @@ export interface AnalyzeCliOptions {
   shared: boolean;
   json: boolean;
   out?: string;
+  /** Chip description file (physics: nominal R and C, R_up, trapped air). */
+  chipFile?: string;
+  /** Upstream resistance R_up, Pa·s/m³ (pressure-driven C with an outlet sensor). */
+  upstreamResistancePaSPerM3?: number;
 }
 
-/** Flags with a value, and the boolean flags, of analyze itself. */
-export const ANALYZE_VALUE_FLAGS = ['--setup', '--steps', '--terms', '--robust', '--min-step', '--min-dwell', '--detect-on', '--response', '--max-fit-points', '--out'] as const;
-export const ANALYZE_BOOLEAN_FLAGS = ['--dead-time', '--drift', '--no-shared', '--json'] as const;
+export const analyzeOptionSpecs: OptionSpecs = {
+  setup: {
+    type: 'string',
+    valueName: '<name>',
+    description: 'flow-driven (pump imposes Q; response = pressure) or pressure-driven (regulator imposes p; response = flow); default: from the setpoint channel',
+  },
+  steps: { type: 'string', valueName: '<file>', description: "step list instead of detection: CSV 'time_s,flow_setpoint[uL/min]' (first row = initial level)" },
+  terms: { type: 'string', valueName: '<n>', description: '1, 2, 3 or auto (default auto: chosen by BIC)' },
+  'dead-time': { type: 'boolean', description: 'also fit a dead time before the response starts' },
+  drift: { type: 'boolean', description: 'also fit a linear drift of the response' },
+  robust: { type: 'string', valueName: '<loss>', description: 'huber or tukey: down-weight spikes (default: plain least squares)' },
+  'min-step': { type: 'string', valueName: '<value>', description: 'smallest drive change counted as a step, with unit: 0.5uL/min, "2 mbar" (default 8 × noise σ)' },
+  'min-dwell': { type: 'string', valueName: '<s>', description: 'shortest time a level must hold, s (default 1 s on a drive channel, 5 s on the response)' },
+  'detect-on': { type: 'string', valueName: '<channel>', description: 'channel to find the steps on (default: the setpoint, else the drive, else the response)' },
+  response: { type: 'string', valueName: '<channel>', description: "channel to fit (default: the setup's response quantity)" },
+  'max-fit-points': { type: 'string', valueName: '<n>', description: 'block-average longer windows to n points before fitting (default 5000; 0 = never)' },
+  'no-shared': { type: 'boolean', description: 'skip the shared-τ fits of steps with the same direction and levels' },
+  chip: { type: 'string', valueName: '<chip.json>', description: 'chip description: nominal R and C beside the measured ones, trapped air from excess C' },
+  'upstream-resistance': {
+    type: 'string',
+    valueName: '<value>',
+    description: 'R_up between a pressure source and the compliant node (bare number: Pa·s/m³; or "2 mbar/(uL/min)")',
+  },
+  json: { type: 'boolean', description: 'print the analysis as JSON (SI units; fields in README.md)' },
+  out: { type: 'string', valueName: '<file>', description: 'write the output to <file> (atomically) instead of the terminal' },
+};
 
 /** Parses `--min-step` text such as `0.5uL/min`, `2 mbar` or `50Pa` to SI. */
 export function parseValueWithUnit(text: string, flag: string): { valueSi: number; kind: UnitKind } {
@@ -38,98 +69,48 @@ export function parseValueWithUnit(text: string, flag: string): { valueSi: numbe
   return { valueSi: Number(m[1]) * factorToSi(found), kind: found.kind };
 }
 
-function positiveNumber(text: string, flag: string): number {
-  const v = Number(text);
-  if (text.trim() === '' || !Number.isFinite(v) || v <= 0) throw new UsageError(`${flag} needs a positive number (got '${text}').`);
-  return v;
-}
-
-/**
- * Splits analyze's own flags from the rest (`rest` goes to the importer's option parser).
- * Accepts `--flag value` and `--flag=value`.
- */
-export function parseAnalyzeArgs(args: string[]): { options: AnalyzeCliOptions; rest: string[] } {
-  const o: AnalyzeCliOptions = { files: [], terms: 'auto', deadTime: false, drift: false, robust: 'none', shared: true, json: false };
-  const rest: string[] = [];
-  for (let i = 0; i < args.length; i++) {
-    const arg = args[i] as string;
-    const eq = arg.startsWith('--') ? arg.indexOf('=') : -1;
-    const flag = eq > 0 ? arg.slice(0, eq) : arg;
-    if ((ANALYZE_BOOLEAN_FLAGS as readonly string[]).includes(flag)) {
-      if (eq > 0) throw new UsageError(`${flag} takes no value.`);
-      if (flag === '--dead-time') o.deadTime = true;
-      else if (flag === '--drift') o.drift = true;
-      else if (flag === '--no-shared') o.shared = false;
-      else o.json = true;
-      continue;
-    }
-    if ((ANALYZE_VALUE_FLAGS as readonly string[]).includes(flag)) {
-      let value: string;
-      if (eq > 0) value = arg.slice(eq + 1);
-      else {
-        const next = args[i + 1];
-        if (next === undefined) throw new UsageError(`${flag} needs a value.`);
-        value = next;
-        i++;
-      }
-      switch (flag) {
-        case '--setup':
-          if (value !== 'flow-driven' && value !== 'pressure-driven') throw new UsageError(`--setup must be flow-driven or pressure-driven (got '${value}').`);
-          o.setup = value;
-          break;
-        case '--steps':
-          o.stepsFile = value;
-          break;
-        case '--terms':
-          if (value === 'auto') o.terms = 'auto';
-          else if (value === '1' || value === '2' || value === '3') o.terms = Number(value) as 1 | 2 | 3;
-          else throw new UsageError(`--terms must be 1, 2, 3 or auto (got '${value}').`);
-          break;
-        case '--robust':
-          if (value !== 'huber' && value !== 'tukey' && value !== 'none') throw new UsageError(`--robust must be huber or tukey (got '${value}').`);
-          o.robust = value;
-          break;
-        case '--min-step':
-          o.minStep = { ...parseValueWithUnit(value, '--min-step'), text: value };
-          break;
-        case '--min-dwell':
-          o.minDwellS = positiveNumber(value, '--min-dwell');
-          break;
-        case '--detect-on':
-          o.detectChannel = value;
-          break;
-        case '--response':
-          o.responseChannel = value;
-          break;
-        case '--max-fit-points': {
-          const v = Number(value);
-          if (!Number.isInteger(v) || v < 0 || (v > 0 && v < 100)) throw new UsageError(`--max-fit-points must be 0 (no averaging) or an integer ≥ 100 (got '${value}').`);
-          o.maxFitPoints = v;
-          break;
-        }
-        case '--out':
-          o.out = value;
-          break;
-      }
-      continue;
-    }
-    if (arg.startsWith('-') && arg !== '-') {
-      rest.push(arg);
-      continue;
-    }
-    // A positional argument: a log file, unless it is the value of an importer flag (kept in order in rest).
-    const prev = rest[rest.length - 1];
-    if (prev !== undefined && prev.startsWith('--') && !prev.includes('=') && rest.length > 0 && expectsValue(prev)) rest.push(arg);
-    else o.files.push(arg);
+/** Checked analyze options from the values parseCommandArgs returned. */
+export function analyzeOptionsFromValues(values: OptionValues): AnalyzeCliOptions {
+  const o: AnalyzeCliOptions = {
+    terms: 'auto',
+    deadTime: booleanOption(values, 'dead-time'),
+    drift: booleanOption(values, 'drift'),
+    robust: 'none',
+    shared: !booleanOption(values, 'no-shared'),
+    json: booleanOption(values, 'json'),
+  };
+  const setup = stringOption(values, 'setup');
+  if (setup !== undefined) {
+    if (setup !== 'flow-driven' && setup !== 'pressure-driven') throw new UsageError(`--setup must be flow-driven or pressure-driven (got '${setup}').`);
+    o.setup = setup;
   }
-  return { options: o, rest };
-}
-
-/** Importer flags that take a value (filled in from the importer's option table when it lands). */
-let importerValueFlags: ReadonlySet<string> = new Set();
-export function setImporterValueFlags(flags: Iterable<string>): void {
-  importerValueFlags = new Set(flags);
-}
-function expectsValue(flag: string): boolean {
-  return importerValueFlags.has(flag);
+  o.stepsFile = stringOption(values, 'steps');
+  const terms = stringOption(values, 'terms');
+  if (terms !== undefined) {
+    if (terms === 'auto') o.terms = 'auto';
+    else if (terms === '1' || terms === '2' || terms === '3') o.terms = Number(terms) as 1 | 2 | 3;
+    else throw new UsageError(`--terms must be 1, 2, 3 or auto (got '${terms}').`);
+  }
+  const robust = stringOption(values, 'robust');
+  if (robust !== undefined) {
+    if (robust !== 'huber' && robust !== 'tukey' && robust !== 'none') throw new UsageError(`--robust must be huber or tukey (got '${robust}').`);
+    o.robust = robust;
+  }
+  const minStep = stringOption(values, 'min-step');
+  if (minStep !== undefined) o.minStep = { ...parseValueWithUnit(minStep, '--min-step'), text: minStep };
+  o.minDwellS = numberOption(values, 'min-dwell', { min: 0, exclusiveMin: true });
+  o.detectChannel = stringOption(values, 'detect-on');
+  o.responseChannel = stringOption(values, 'response');
+  const maxPoints = numberOption(values, 'max-fit-points', { min: 0 });
+  if (maxPoints !== undefined) {
+    if (!Number.isInteger(maxPoints) || (maxPoints > 0 && maxPoints < 100)) {
+      throw new UsageError(`--max-fit-points must be 0 (no averaging) or an integer ≥ 100 (got '${maxPoints}').`);
+    }
+    o.maxFitPoints = maxPoints;
+  }
+  o.out = stringOption(values, 'out');
+  o.chipFile = stringOption(values, 'chip');
+  const rUp = stringOption(values, 'upstream-resistance');
+  if (rUp !== undefined) o.upstreamResistancePaSPerM3 = parseResistance(rUp);
+  return o;
 }

@@ -8,7 +8,7 @@ import { SI_UNIT_OF, type Channel, type Recording } from '../recording/types';
 import { chooseSetup, responseChannel, SETUP_QUANTITIES } from '../steps/choose-channel';
 import { detectSteps } from '../steps/detect';
 import { noiseSigmaFromDifferences } from '../steps/robust';
-import type { Setup, Step, StepDetection } from '../steps/types';
+import type { Ramp, Setup, Step, StepDetection } from '../steps/types';
 import { sameLevelGroups } from './shared';
 import { ci, fitJson, num, termJson, warningJson } from './to-json';
 import type { AnalysisJson, AnalyzeOptions, Fitter, SharedFitJson, StepJson, WarningJson } from './types';
@@ -30,10 +30,10 @@ export function analyzeRecording(recording: Recording, options: AnalyzeOptions, 
   const setup = setupChoice.setup;
   const response = responseChannel(recording, setup, options.responseChannel);
   if (!response) {
-    const wanted = options.responseChannel ?? `a ${SETUP_QUANTITIES[setup].response} channel`;
+    const wanted = options.responseChannel ? `channel '${options.responseChannel}'` : `${SETUP_QUANTITIES[setup].response} channel`;
     throw new InputError(
       'no-response-channel',
-      `The log has no ${options.responseChannel ? `channel '${wanted}'` : wanted} to analyse as the response of a ${setup} setup`,
+      `The log has no ${wanted} to analyse as the response of a ${setup} setup`,
       `Channels found: ${recording.channels.map((c) => `${c.name} (${c.quantity})`).join(', ') || 'none'}; give the other --setup or say which column is the response`,
       { file: recording.sources[0] },
     );
@@ -43,7 +43,7 @@ export function analyzeRecording(recording: Recording, options: AnalyzeOptions, 
     warnings.push({ code: 'setup-assumed', message: `Setup ${setup} assumed: ${setupChoice.reason}. Give --setup if that is wrong.` });
   }
   const endS = recording.timeS.length > 0 ? (recording.timeS[recording.timeS.length - 1] as number) : 0;
-  const detection = options.steps ? userDetection(options.steps, endS, setup, warnings) : detectSteps(recording, { ...options.detection, setup, responseChannel: response.name });
+  const detection = options.steps ? userDetection(options.steps, options.ramps ?? [], endS, setup, warnings) : detectSteps(recording, { ...options.detection, setup, responseChannel: response.name });
   warnings.push(...detection.warnings);
   progress(0.1, 'fits');
 
@@ -116,7 +116,7 @@ export function analyzeRecording(recording: Recording, options: AnalyzeOptions, 
 }
 
 /** A detection record for steps the user gave (they are checked against the recording's span). */
-function userDetection(steps: Step[], endS: number, setup: Setup, warnings: Warning[]): StepDetection {
+function userDetection(steps: Step[], ramps: Ramp[], endS: number, setup: Setup, warnings: Warning[]): StepDetection {
   const inside = steps.filter((s) => s.onsetS < endS);
   if (inside.length < steps.length) {
     warnings.push({
@@ -128,7 +128,7 @@ function userDetection(steps: Step[], endS: number, setup: Setup, warnings: Warn
   const quantity = inside[0]?.drive.quantity ?? SETUP_QUANTITIES[setup].setpoint;
   return {
     steps: inside.map((s, index) => ({ ...s, index, windowEndS: Math.min(s.windowEndS, endS) })),
-    ramps: [],
+    ramps: ramps.filter((r) => r.startS < endS),
     channel: null,
     quantity,
     origin: 'user',

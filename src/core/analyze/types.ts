@@ -5,7 +5,7 @@
  */
 import type { RobustLoss, TransientData, TransientFit, TransientFitOptions } from '../fit/types';
 import type { Quantity } from '../recording/types';
-import type { Setup, Step, StepDetectionOptions } from '../steps/types';
+import type { Ramp, Setup, Step, StepDetectionOptions } from '../steps/types';
 
 /** The fitting functions the pipeline calls (src/core/fit); injectable so tests can count calls. */
 export interface Fitter {
@@ -33,6 +33,8 @@ export interface AnalyzeOptions {
   detection?: StepDetectionOptions;
   /** User steps (e.g. from a step list); skips detection. */
   steps?: Step[];
+  /** Ramps of the user's programme (reported, not fitted); only with `steps`. */
+  ramps?: Ramp[];
   /** Options passed to every transient fit. */
   fit?: TransientFitOptions;
   /** Most points passed to one fit; longer windows are block-averaged. Default 5000; 0 = never. */

@@ -7,10 +7,11 @@
 import type { Channel, Quantity, Recording } from '../recording/types';
 import type { Setup } from './types';
 
-/** Quantity of the drive setpoint, the measured drive and the response for each setup. */
-export const SETUP_QUANTITIES: Readonly<Record<Setup, { setpoint: Quantity; drive: Quantity; response: Quantity }>> = {
-  'flow-driven': { setpoint: 'flow_setpoint', drive: 'flow', response: 'pressure' },
-  'pressure-driven': { setpoint: 'pressure_setpoint', drive: 'pressure', response: 'flow' },
+/** Quantity of the drive setpoint, the measured drives and the response for each setup. */
+export const SETUP_QUANTITIES: Readonly<Record<Setup, { setpoint: Quantity; drive: readonly Quantity[]; response: Quantity }>> = {
+  'flow-driven': { setpoint: 'flow_setpoint', drive: ['flow'], response: 'pressure' },
+  // A liquid head (reservoir height) is a pressure source too (p = ρ·g·h, converted at import).
+  'pressure-driven': { setpoint: 'pressure_setpoint', drive: ['pressure', 'hydrostatic_head'], response: 'flow' },
 };
 
 export interface SetupChoice {
@@ -26,10 +27,10 @@ const firstOf = (recording: Recording, quantity: Quantity): Channel | undefined 
 
 /**
  * The setup: given, or inferred from the setpoint channel present (flow_setpoint → flow-driven,
- * pressure_setpoint → pressure-driven), or from the only measured quantity (pressure alone is the
- * response of a pump; flow alone the response of a regulator). With both measured and no setpoint,
- * pressure-driven is assumed (pressure controllers usually log the flow sensor too; common practice,
- * no source) and flagged as assumed.
+ * pressure_setpoint → pressure-driven), a liquid-head channel (pressure-driven), or the only measured
+ * quantity (pressure alone is the response of a pump; flow alone the response of a regulator). With
+ * both measured and no setpoint, pressure-driven is assumed (pressure controllers usually log the
+ * flow sensor too; common practice, no source) and flagged as assumed.
  */
 export function chooseSetup(recording: Recording, given?: Setup): SetupChoice {
   if (given) return { setup: given, reason: 'given', assumed: false };
@@ -43,6 +44,9 @@ export function chooseSetup(recording: Recording, given?: Setup): SetupChoice {
   if (has('pressure_setpoint') && has('flow_setpoint')) {
     return { setup: 'pressure-driven', reason: 'the log has both setpoint channels; assumed pressure-driven', assumed: true };
   }
+  if (has('hydrostatic_head')) {
+    return { setup: 'pressure-driven', reason: 'the log has a liquid-head channel (a hydrostatic pressure source)', assumed: false };
+  }
   if (has('pressure') && !has('flow')) {
     return { setup: 'flow-driven', reason: 'the log has only a pressure channel (the response to a pump)', assumed: true };
   }
@@ -52,19 +56,28 @@ export function chooseSetup(recording: Recording, given?: Setup): SetupChoice {
   return { setup: 'pressure-driven', reason: 'the log has pressure and flow but no setpoint; assumed pressure-driven', assumed: true };
 }
 
-/** The response channel of a setup (first channel of the response quantity), or undefined. */
+/**
+ * The response channel of a setup: `name` when given; else the first channel of the setup's response
+ * quantity; else, when the log has the setpoint, the measured drive quantity — its settling towards the
+ * setpoint has the same τ (physics.md §4.2: the outlet flow after a pump step, Q_out = Q0·(1 − e^{−t/RC});
+ * §4.3: the node pressure after a regulator step). Undefined when none exists.
+ */
 export function responseChannel(recording: Recording, setup: Setup, name?: string): Channel | undefined {
   if (name !== undefined) return recording.channels.find((c) => c.name === name);
-  return firstOf(recording, SETUP_QUANTITIES[setup].response);
+  const q = SETUP_QUANTITIES[setup];
+  const primary = firstOf(recording, q.response);
+  if (primary) return primary;
+  if (!firstOf(recording, q.setpoint)) return undefined;
+  return recording.channels.find((c) => q.drive.includes(c.quantity) && c.quantity !== 'hydrostatic_head');
 }
 
 /**
- * The drive channel of a setup: its setpoint channel, else the measured drive quantity when it is not
- * the response (e.g. the supply pressure next to a flow response), else undefined (detect on the response).
+ * The drive channel of a setup: its setpoint channel, else a measured drive quantity that is not the
+ * response (e.g. the supply pressure or liquid head next to a flow response), else undefined (detect on the response).
  */
 export function driveChannel(recording: Recording, setup: Setup, response: Channel | undefined): Channel | undefined {
   const q = SETUP_QUANTITIES[setup];
   const setpoint = firstOf(recording, q.setpoint);
   if (setpoint) return setpoint;
-  return recording.channels.find((c) => c.quantity === q.drive && c !== response);
+  return recording.channels.find((c) => q.drive.includes(c.quantity) && c !== response);
 }

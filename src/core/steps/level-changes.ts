@@ -19,7 +19,8 @@
  *    - otherwise (a straight line gives 1.0): a ramp, reported and never fitted;
  * 6. both levels must hold for the dwell: a step closer than the dwell to the previous or next change
  *    (or to the start or end) is dropped; the reported levels are the medians of the dwell right before
- *    the onset and of the last dwell before the next change (the settled level).
+ *    the onset (its last quarter for a gradual step, whose predecessor may still be creeping) and of the
+ *    last dwell before the next change (the settled level).
  */
 import type { Warning } from '../errors';
 import type { Ramp, StepShape } from './types';
@@ -114,34 +115,50 @@ export function findLevelChanges(timeS: Float64Array, values: ArrayLike<number>,
     const afterHi = next ? next.peak - guardAfter : n;
     const afterLo = Math.max(cand.peak + guardAfter, afterHi - L);
     if (beforeHi - beforeLo < 3 || afterHi - afterLo < 3) continue;
-    const before = medianOfSlice(f, beforeLo, beforeHi);
+    // The old level right before the change: the last quarter of the dwell (a preceding settling
+    // tail still creeping towards its plateau would bias a median of the whole dwell).
+    const quarter = Math.max(3, Math.ceil(L / 4));
+    let before = medianOfSlice(f, Math.max(beforeLo, beforeHi - quarter), beforeHi);
     const after = medianOfSlice(f, afterLo, afterHi);
-    const delta = after - before;
-    if (!(Math.abs(delta) >= minStep) || Math.sign(delta) !== cand.sign) continue;
+    if (!(Math.abs(after - before) >= minStep) || Math.sign(after - before) !== cand.sign) continue;
     const sgn = cand.sign;
-    const absDelta = Math.abs(delta);
-    // Smoothing width so that the 10 % level lies ≥ 3 smoothed-noise σ above the old level.
-    const k = Math.min(L, Math.max(1, Math.ceil(((30 * sigma) / absDelta) ** 2))) | 1;
-    const h = (k - 1) / 2;
-    const smooth = (j: number): number => meanOf(Math.max(0, j - h), Math.min(n, j + h + 1));
-    const progress = (j: number): number => (sgn * (smooth(j) - before)) / absDelta;
     const searchFrom = beforeHi;
     const searchTo = afterHi;
-    const crossing = (from: number, level: number): number => {
-      for (let j = from; j < searchTo; j++) if (progress(j) >= level) return j;
-      return -1;
-    };
-    const i10 = crossing(searchFrom, 0.1);
-    if (i10 < 0) continue;
-    const i50 = Math.max(i10, crossing(i10, 0.5));
-    const i90found = crossing(i50, 0.9);
-    const i90 = i90found < 0 ? afterLo : i90found;
-    const band = Math.max((3 * sigma) / Math.sqrt(k), 0.02 * absDelta);
-    const lastAtOldLevel = (): number => {
+    /** Times the change relative to an old level: 10/50/90 % crossings and the last sample at the old level. */
+    const timeChange = (oldLevel: number) => {
+      const absDelta = Math.abs(after - oldLevel);
+      // Smoothing width so that the 10 % level lies ≥ 3 smoothed-noise σ above the old level.
+      const k = Math.min(L, Math.max(1, Math.ceil(((30 * sigma) / absDelta) ** 2))) | 1;
+      const h = (k - 1) / 2;
+      const smooth = (j: number): number => meanOf(Math.max(0, j - h), Math.min(n, j + h + 1));
+      const progress = (j: number): number => (sgn * (smooth(j) - oldLevel)) / absDelta;
+      const crossing = (from: number, level: number): number => {
+        for (let j = from; j < searchTo; j++) if (progress(j) >= level) return j;
+        return -1;
+      };
+      const i10 = crossing(searchFrom, 0.1);
+      const i50 = Math.max(i10, crossing(i10, 0.5));
+      const i90found = i10 < 0 ? -1 : crossing(i50, 0.9);
+      const i90 = i90found < 0 ? afterLo : i90found;
+      const band = Math.max((3 * sigma) / Math.sqrt(k), 0.02 * absDelta);
       let j = i10;
-      while (j > searchFrom && sgn * (smooth(j) - before) > band) j--;
-      return Math.min(j + 1, i10);
+      while (j > searchFrom && sgn * (smooth(j) - oldLevel) > band) j--;
+      return { i10, i50, i90, k, band, absDelta, progress, lastAtOld: Math.min(j + 1, i10) };
     };
+    let timing = timeChange(before);
+    if (timing.i10 < 0) continue;
+    // A gradual change: re-take the old level just before the estimated onset (twice), since the first
+    // estimate may sit on the tail of an earlier transition.
+    for (let pass = 0; pass < 2 && timing.i90 - timing.i10 > timing.k + 2; pass++) {
+      const refined = medianOfSlice(f, Math.max(beforeLo, timing.lastAtOld - quarter), timing.lastAtOld);
+      if (!Number.isFinite(refined) || !(Math.abs(after - refined) >= minStep)) break;
+      const t2 = timeChange(refined);
+      if (t2.i10 < 0) break;
+      before = refined;
+      timing = t2;
+    }
+    const { i10, i50, i90, k, band, absDelta, progress } = timing;
+    const lastAtOldLevel = (): number => timing.lastAtOld;
     if (i90 - i10 <= k + 2) {
       let onsetIndex = i50;
       for (let j = Math.max(searchFrom, i10 - k - 1); j <= Math.min(n - 1, i90 + k + 1); j++) {
@@ -183,7 +200,8 @@ export function findLevelChanges(timeS: Float64Array, values: ArrayLike<number>,
       continue;
     }
     // Final levels: medians of the dwell right before the onset and of the last dwell before the next change.
-    const before = medianOfSlice(f, Math.max(prevEnd, ev.startIndex - L), ev.startIndex);
+    const beforeFrom = ev.step.shape === 'abrupt' ? ev.startIndex - L : ev.startIndex - Math.max(3, Math.ceil(L / 4));
+    const before = medianOfSlice(f, Math.max(prevEnd, beforeFrom), ev.startIndex);
     const after = medianOfSlice(f, Math.max(ev.startIndex, nextStart - L), nextStart);
     if (!(Math.abs(after - before) >= minStep)) continue;
     steps.push({ ...ev.step, before, after });

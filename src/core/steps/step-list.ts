@@ -12,6 +12,9 @@
  * - Column 1: time since the start of the log — `time_s`, or `time[unit]` with s, ms, min or h.
  * - Column 2: the drive — `flow_setpoint[unit]`, `pressure_setpoint[unit]` (also `flow[…]`, `pressure[…]`),
  *   `value[unit]` (quantity from the unit's kind) or plain `value` (SI; quantity from the setup).
+ * - Optional column 3, `ramp_s`: a ramp duration in s; a row with ramp_s > 0 is a linear ramp from the
+ *   previous level (not a step: it is reported and never fitted) — the same programme files drive
+ *   `lagbench simulate`. An empty cell means 0 (a step).
  * - The first row is the level from the start of the log; every later row whose value differs is a step.
  * - Times must increase. Comma, semicolon or tab separate the two columns; '.' is the decimal mark.
  */
@@ -24,6 +27,8 @@ export interface ProgramEntry {
   timeS: number;
   /** New drive level, SI. */
   value: number;
+  /** Ramp duration, s: > 0 makes the row a linear ramp instead of a step. */
+  rampS?: number;
 }
 
 export interface StepList {
@@ -125,16 +130,18 @@ export function parseStepList(text: string, file: string): StepList {
   const lines = text.replace(/^\uFEFF/, '').split(/\r\n|\n|\r/);
   let timeFactor = 0;
   let value: { quantity: Quantity | null; factor: number } | null = null;
+  let hasRamp = false;
   const entries: ProgramEntry[] = [];
   for (let i = 0; i < lines.length; i++) {
     const raw = lines[i] as string;
     const lineNo = i + 1;
     if (raw.trim() === '' || raw.trim().startsWith('#')) continue;
     const cells = splitCells(raw);
-    if (cells.length < 2 || (cells.length > 2 && cells.slice(2).some((c) => c !== ''))) {
+    const maxCells = value === null || hasRamp ? 3 : 2;
+    if (cells.length < 2 || (cells.length > maxCells && cells.slice(maxCells).some((c) => c !== ''))) {
       throw located(
         'step-list-column-count',
-        `Expected 2 columns (time, value), found ${cells.length}`,
+        `Expected ${maxCells === 3 && value !== null ? '2 or 3 columns (time, value, ramp_s)' : '2 columns (time, value)'}, found ${cells.length}`,
         'Write one time and one drive value per line, separated by a comma',
         file,
         lineNo,
@@ -143,7 +150,21 @@ export function parseStepList(text: string, file: string): StepList {
     if (value === null) {
       timeFactor = parseTimeHeader(cells[0] as string, file, lineNo);
       value = parseValueHeader(cells[1] as string, file, lineNo, columnOf(raw, 1));
+      const third = (cells[2] ?? '').trim();
+      if (third !== '' && !/^ramp_s$/i.test(third)) {
+        throw located('step-list-bad-ramp-header', `The third column header '${third}' is not 'ramp_s'`, "Name it 'ramp_s' (ramp duration in s) or leave it out", file, lineNo, columnOf(raw, 2));
+      }
+      hasRamp = third !== '';
       continue;
+    }
+    let rampS = 0;
+    const rampText = (cells[2] ?? '').trim();
+    if (hasRamp && rampText !== '') {
+      const r = parseNumber(rampText);
+      if (r === null || r < 0) {
+        throw located('step-list-bad-ramp', `'${rampText}' is not a ramp duration ≥ 0 s`, 'Write the ramp duration in seconds, or leave the cell empty for a step', file, lineNo, columnOf(raw, 2));
+      }
+      rampS = r;
     }
     const t = parseNumber(cells[0] as string);
     if (t === null || t < 0) {
@@ -158,7 +179,7 @@ export function parseStepList(text: string, file: string): StepList {
     if (prev && !(timeS > prev.timeS)) {
       throw located('step-list-time-order', `Time ${cells[0]} does not come after the previous row`, 'List the steps in increasing time', file, lineNo, 1);
     }
-    entries.push({ timeS, value: v * value.factor });
+    entries.push(rampS > 0 ? { timeS, value: v * value.factor, rampS } : { timeS, value: v * value.factor });
   }
   if (value === null) {
     throw new InputError('step-list-empty', 'The step list has no header line', "Start with a header such as 'time_s,flow_setpoint[uL/min]'", { file });

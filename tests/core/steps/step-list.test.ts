@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { parseStepList } from '../../../src/core/steps/step-list';
-import { stepsFromProgram } from '../../../src/core/steps/program';
+import { rampsFromProgram, stepsFromProgram } from '../../../src/core/steps/program';
 import { InputError } from '../../../src/core/errors';
 
 function errorOf(fn: () => unknown): InputError {
@@ -46,6 +46,16 @@ describe('parseStepList', () => {
     });
   });
 
+  it('parseStepList(ramp_s column) marks ramp rows; an empty cell is a step', () => {
+    const list = parseStepList('time_s,flow[uL/min],ramp_s\n0,2\n15,5,\n75,10,3\n', 'p.csv');
+    expect(list.quantity).toBe('flow_setpoint');
+    expect(list.entries.map((e) => e.rampS ?? 0)).toEqual([0, 0, 3]);
+    const e = errorOf(() => parseStepList('time_s,value,ramp_s\n0,0\n5,1,-2\n', 'r.csv'));
+    expect(e.code).toBe('step-list-bad-ramp');
+    expect(e.location).toEqual({ file: 'r.csv', line: 3, column: 5 });
+    expect(errorOf(() => parseStepList('time_s,value,speed\n0,0\n5,1\n', 'r.csv')).code).toBe('step-list-bad-ramp-header');
+  });
+
   it('parseStepList(bad number) throws a located InputError with line and column', () => {
     const e = errorOf(() => parseStepList('time_s,flow_setpoint[uL/min]\n0,0\n60,ten\n', 'prog.csv'));
     expect(e.code).toBe('step-list-bad-value');
@@ -71,6 +81,21 @@ describe('parseStepList', () => {
 });
 
 describe('stepsFromProgram', () => {
+  it('stepsFromProgram(ramp rows) makes no step of a ramp, which ends the previous window; rampsFromProgram lists it', () => {
+    const entries = [
+      { timeS: 0, value: 2 },
+      { timeS: 15, value: 5 },
+      { timeS: 75, value: 10, rampS: 3 },
+      { timeS: 105, value: 2 },
+    ];
+    const steps = stepsFromProgram(entries, 'flow_setpoint', 200);
+    expect(steps.map((s) => [s.onsetS, s.windowEndS, s.drive.before, s.drive.after])).toEqual([
+      [15, 75, 2, 5],
+      [105, 200, 10, 2],
+    ]);
+    expect(rampsFromProgram(entries, 200)).toEqual([{ startS: 75, endS: 78, before: 5, after: 10 }]);
+  });
+
   it('stepsFromProgram(entries) makes a step per change, windows to the next change or the end', () => {
     const steps = stepsFromProgram(
       [
