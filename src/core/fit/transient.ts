@@ -63,6 +63,13 @@ export function prepareWindow(data: TransientData, noiseSigma?: number): Prepare
       throw new InputError('time-not-increasing', `time stamps must increase (sample ${i + 1} at ${tS[i]} s follows ${tS[i - 1]} s)`, 'sort the window by time and remove duplicate time stamps');
     }
   }
+  if (n > 1 && tS[0]! > 100 * (tS[n - 1]! - tS[0]!)) {
+    throw new InputError(
+      'time-not-relative',
+      `the window's time stamps start at ${tS[0]} s, far beyond its ${tS[n - 1]! - tS[0]!} s length: they look absolute, not relative to the step onset`,
+      'pass seconds since the step onset (t − t₀)',
+    );
+  }
   const diffs = new Float64Array(Math.max(0, n - 1));
   for (let i = 1; i < n; i++) diffs[i - 1] = tS[i]! - tS[i - 1]!;
   const dtS = n > 1 ? median(diffs) : NaN;
@@ -154,7 +161,12 @@ export function fitTransient(data: TransientData, options: TransientFitOptions =
     candidates.push({ terms: order, ssr: fit.ssr * prepared.yScale ** 2, dof: fit.nEffective - k, bic, aicc, fTestP, acceptable });
   }
 
-  if (fits.length === 0) return unfitted(prepared, terms === 'auto' ? 1 : terms, base, robust);
+  if (fits.length === 0) {
+    const order = terms === 'auto' ? 1 : terms;
+    const k = parameterCount({ terms: order, ...base });
+    const reason = n < k + 1 ? `${n} points for ${k} parameters` : 'no usable starting values (the window may hold no exponential change)';
+    return unfitted(prepared, order, base, robust, reason);
+  }
   let chosenIndex = 0;
   if (terms === 'auto') {
     let bestBic = Infinity;
@@ -308,7 +320,7 @@ function flagsFor(fit: TransientFit, shapeFit: ShapeFit, w: PreparedWindow): Fit
 }
 
 /** Result for a window that cannot be fitted at all (fewer points than parameters + 1). */
-function unfitted(w: PreparedWindow, terms: number, base: { deadTime: boolean; drift: boolean }, robust: TransientFit['model']['robust']): TransientFit {
+function unfitted(w: PreparedWindow, terms: number, base: { deadTime: boolean; drift: boolean }, robust: TransientFit['model']['robust'], reason: string): TransientFit {
   const none: Estimate = { value: NaN, standardError: NaN, ci95: [NaN, NaN] };
   const shape = { terms, ...base };
   return {
@@ -320,7 +332,7 @@ function unfitted(w: PreparedWindow, terms: number, base: { deadTime: boolean; d
     parameterNames: [],
     correlation: [],
     converged: false,
-    stopReason: `not fitted: ${w.tS.length} points for ${parameterCount(shape)} parameters`,
+    stopReason: `not fitted: ${reason}`,
     iterations: 0,
     n: w.tS.length,
     dof: w.tS.length - parameterCount(shape),
@@ -335,8 +347,10 @@ function unfitted(w: PreparedWindow, terms: number, base: { deadTime: boolean; d
     t95S: NaN,
     t99S: NaN,
     flags: [
-      { code: 'too-few-points', message: `Only ${w.tS.length} usable points; at least ${parameterCount(shape) + 1} are needed for a ${terms}-term fit.` },
-      { code: 'not-converged', message: 'No fit was attempted.' },
+      ...(w.tS.length < parameterCount(shape) + 1
+        ? [{ code: 'too-few-points' as const, message: `Only ${w.tS.length} usable points; at least ${parameterCount(shape) + 1} are needed for a ${terms}-term fit.` }]
+        : []),
+      { code: 'not-converged', message: `No fit: ${reason}.` },
       { code: 'inconclusive', message: 'No estimate can be made from this window.' },
     ],
     orderSelection: null,

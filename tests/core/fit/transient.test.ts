@@ -178,6 +178,12 @@ describe('fitTransient flags', () => {
     expect(codes(fit)).toContain('inconclusive');
   });
 
+  it('fitTransient throws an InputError for absolute (epoch) time stamps', () => {
+    // GUIDE §3: fit in time relative to the step onset; epoch seconds would lose the digits.
+    const tS = Float64Array.from({ length: 100 }, (_, i) => 1.7e9 + i * 0.01);
+    expect(() => fitTransient({ tS, y: new Float64Array(100) })).toThrow(/relative to the step onset/);
+  });
+
   it('fitTransient throws a located InputError for time stamps out of order', () => {
     const data = { tS: new Float64Array([0, 1, 1, 2]), y: new Float64Array([0, 1, 2, 3]) };
     expect(() => fitTransient(data)).toThrow(InputError);
