@@ -62,6 +62,8 @@ export interface TrendJson {
   direction: Trend['direction'];
   statement: string;
   points: number;
+  /** Mean absolute pressure of the steps used (all at one level, within 2 %), Pa. */
+  pressure_abs_Pa: number | null;
 }
 
 export interface StepPhysicsFields {
@@ -208,7 +210,10 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
   const extra: Record<string, unknown> = {};
   try {
     if (setup === 'flow-driven') {
-      estimate = estimateFlowDriven({ pressureFit: fit, flowBeforeM3PerS: before, flowAfterM3PerS: after });
+      // Δp∞ = y∞ − the measured pre-step level (model-free); the fit's start level only as a fallback.
+      const pressureBefore = response ? preStepLevel(ctx.recording, response, ctx.previousOnsetS, step.start_s) : undefined;
+      estimate = estimateFlowDriven({ pressureFit: fit, flowBeforeM3PerS: before, flowAfterM3PerS: after, ...(pressureBefore ? { pressureBefore } : {}) });
+      extra.baseline = pressureBefore ? 'mean pressure at the end of the previous level' : "the fit's start level y∞ + Σaᵢ";
       if (response) {
         gaugePa = windowMean(ctx.recording.timeS, response, step.start_s, step.end_s).value;
         flowBalance = flowBalanceFor(ctx, step, response);
@@ -217,6 +222,7 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
       const sensor = ctx.options.flowSensor && ctx.options.flowSensor !== 'auto' ? ctx.options.flowSensor : sensorFromShape(step);
       const flowBefore = response ? preStepLevel(ctx.recording, response, ctx.previousOnsetS, step.start_s) : undefined;
       const up = sensor === 'outlet' ? upstreamFromOptions(ctx) : undefined;
+      extra.baseline = flowBefore ? 'mean flow at the end of the previous level' : "the fit's start level y∞ + Σaᵢ";
       const pd: PressureDrivenEstimate = estimatePressureDriven({
         flowFit: fit,
         sensor: sensor === 'inlet' && !flowBefore ? 'outlet' : sensor,
@@ -323,6 +329,19 @@ function excessJson(a: AirVolumeFromExcess, steps: number): TrappedAirJson {
   };
 }
 
+/** The largest set of items whose level lies within `fraction` of the set's lowest level. */
+function largestSameLevelGroup<T>(items: T[], level: (x: T) => number, fraction: number): T[] {
+  const sorted = [...items].sort((a, b) => level(a) - level(b));
+  let best: T[] = [];
+  for (let i = 0; i < sorted.length; i++) {
+    const base = level(sorted[i] as T);
+    const group = sorted.filter((x) => level(x) >= base && level(x) <= base * (1 + fraction));
+    if (group.length > best.length) best = group;
+  }
+  // back in time order
+  return items.filter((x) => best.includes(x));
+}
+
 /** Adds R, C, pressures, the nominal prediction and trapped air to an analysis (header). */
 export function addPhysics(analysis: AnalysisJson, recording: Recording, options: PhysicsOptions = {}): AnalysisWithPhysicsJson {
   const topWarnings: WarningJson[] = [...analysis.warnings];
@@ -390,7 +409,10 @@ export function addPhysics(analysis: AnalysisJson, recording: Recording, options
     });
   }
 
-  const trend = withC.length >= 3 ? linearTrend(withC.map((x) => ({ timeS: x.s.start_s, value: x.c.value, standardError: x.c.standardError }))) : null;
+  // Trend over time only among steps at the same pressure level (within 2 %): gas compliance also
+  // changes with pressure (1/p², §3.3), so mixing levels would read a pressure change as dissolution.
+  const sameLevel = largestSameLevelGroup(withC, (x) => x.s.pressure_abs_Pa as number, 0.02);
+  const trend = sameLevel.length >= 3 ? linearTrend(sameLevel.map((x) => ({ timeS: x.s.start_s, value: x.c.value, standardError: x.c.standardError }))) : null;
   return {
     ...analysis,
     steps,
@@ -405,6 +427,7 @@ export function addPhysics(analysis: AnalysisJson, recording: Recording, options
           direction: trend.direction,
           statement: trend.statement,
           points: trend.points,
+          pressure_abs_Pa: num(sameLevel.reduce((a, x) => a + (x.s.pressure_abs_Pa as number), 0) / sameLevel.length),
         }
       : null,
   };

@@ -142,6 +142,50 @@ describe('addPhysics on analyzeRecording results', () => {
     }
   });
 
+  /** Repeated 0 ↔ Q steps, each settled, with C_k per step (piecewise closed form of §4.2). */
+  function repeatedLog(cOfStep: (k: number) => number, seed: number): Recording {
+    const R = 2e13;
+    const q0 = 1e-10;
+    const holdS = 15;
+    const steps = 10;
+    const rate = 50;
+    const n = (steps + 1) * holdS * rate;
+    const rng = createRng(seed);
+    const t = new Float64Array(n);
+    const qs = new Float64Array(n);
+    const p = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      const ti = i / rate;
+      const k = Math.floor(ti / holdS); // segment 0 = before the first step
+      const level = k % 2 === 1 ? q0 : 0;
+      t[i] = ti;
+      qs[i] = level;
+      if (k === 0) {
+        p[i] = 10 * rng.normal();
+        continue;
+      }
+      const prev = k % 2 === 1 ? 0 : q0 * R; // settled level of the previous segment (15 s ≥ 7 τ)
+      const tau = R * cOfStep(k);
+      p[i] = prev + (level * R - prev) * (1 - Math.exp(-(ti - k * holdS) / tau)) + 10 * rng.normal();
+    }
+    return recording(t, [channel('flow_setpoint', 'flow_setpoint', qs), channel('pressure', 'pressure', p)]);
+  }
+
+  it('addPhysics reports a falling compliance trend at one pressure level (a dissolving bubble, §3.9)', () => {
+    // invented: C falls 4 % per step from 1e-13 m³/Pa
+    const rec = repeatedLog((k) => 1e-13 * (1 - 0.04 * k), 8);
+    const out = addPhysics(analyzeRecording(rec, { fit: { terms: 1 } }, defaultFitter), rec, { ambientPressurePa: ATM });
+    expect(out.compliance_trend?.direction).toBe('falling');
+    // up and down steps differ by ~1.5 kPa in mean pressure, within the 2 % same-level band: all 10 count
+    expect(out.compliance_trend?.points).toBe(10);
+  });
+
+  it('addPhysics finds no trend when C stays constant over repeated steps', () => {
+    const rec = repeatedLog(() => 1e-13, 9);
+    const out = addPhysics(analyzeRecording(rec, { fit: { terms: 1 } }, defaultFitter), rec, { ambientPressurePa: ATM });
+    expect(out.compliance_trend?.direction).toBe('no significant trend');
+  });
+
   /**
    * Flow-driven node loaded by trapped air: C(p) = C_rigid + V_atm·p_atm/p_abs² (Boyle, §3.3),
    * C(p)·dp/dt = Q − p/R integrated by RK4 here. Small pressure steps around several levels, so
