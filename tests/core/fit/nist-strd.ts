@@ -18,6 +18,9 @@ export interface NistProblem {
   name: string;
   x: Float64Array;
   y: Float64Array;
+  /** The data as written in the file (for extended-precision checks). */
+  xText: string[];
+  yText: string[];
   parameters: NistParameter[];
   rss: number;
   residualSd: number;
@@ -62,8 +65,12 @@ export function readNist(name: string): NistProblem {
   const n = d1 - d0 + 1;
   const x = new Float64Array(n);
   const y = new Float64Array(n);
+  const xText: string[] = [];
+  const yText: string[] = [];
   for (let i = 0; i < n; i++) {
     const parts = lines[d0 - 1 + i]!.trim().split(/\s+/);
+    yText.push(parts[0]!);
+    xText.push(parts[1]!);
     y[i] = num(parts[0]!);
     x[i] = num(parts[1]!);
   }
@@ -71,6 +78,8 @@ export function readNist(name: string): NistProblem {
     name,
     x,
     y,
+    xText,
+    yText,
     parameters,
     rss: field('Residual Sum of Squares'),
     residualSd: field('Residual Standard Deviation'),
