@@ -203,12 +203,24 @@ function sharedFits(
         drive_before: num(first.drive.before),
         drive_after: num(first.drive.after),
         step_indices: group.map((s) => s.index),
-        terms: shared.terms.map((t) => ({ tau_s: num(t.tauS.value), tau_se_s: num(t.tauS.standardError), tau_ci95_s: ci(t.tauS.ci95) })),
+        model: { terms: shared.model.terms, dead_time: shared.model.deadTime, drift: shared.model.drift, robust: shared.model.robust },
+        terms: shared.tausS.map((t) => ({ tau_s: num(t.value), tau_se_s: num(t.standardError), tau_ci95_s: ci(t.ci95) })),
+        dead_time_s: num(shared.deadTimeS?.value),
+        dead_time_ci95_s: shared.deadTimeS ? ci(shared.deadTimeS.ci95) : null,
+        windows: shared.windows.map((w, k) => ({
+          step_index: (group[k] as Step).index,
+          y_inf: num(w.yInf.value),
+          y_inf_ci95: ci(w.yInf.ci95),
+          amplitudes: w.amplitudes.map((a) => num(a.value)),
+          rmse: num(w.rmse),
+          n: w.n,
+        })),
         converged: shared.converged,
         stop_reason: shared.stopReason,
-        rmse: num(shared.rmse),
-        n: shared.n ?? null,
-        flags: (shared.flags ?? []).map((f) => ({ code: f.code, message: f.message })),
+        iterations: shared.iterations,
+        n: shared.n,
+        dof: shared.dof,
+        flags: shared.flags.map((f) => ({ code: f.code, message: f.message })),
       });
     } catch (err) {
       if (!(err instanceof InputError)) throw err;

@@ -1,5 +1,5 @@
 /** The fitter the pipeline uses outside tests: src/core/fit. */
-import { fitTransient } from '../fit/transient';
+import { fitSharedTaus, fitTransient } from '../fit/index';
 import type { Fitter } from './types';
 
-export const defaultFitter: Fitter = { fitTransient };
+export const defaultFitter: Fitter = { fitTransient, fitSharedTaus };

@@ -3,7 +3,7 @@
  * units in the names; documented field by field in README.md). Non-finite numbers are null.
  * Later stages add to it (e.g. `physics` per step) without changing the fields below.
  */
-import type { RobustLoss, TransientData, TransientFit, TransientFitOptions } from '../fit/types';
+import type { RobustLoss, SharedTauFit, TransientData, TransientFit, TransientFitOptions } from '../fit/types';
 import type { Quantity } from '../recording/types';
 import type { Ramp, Setup, Step, StepDetectionOptions } from '../steps/types';
 
@@ -11,17 +11,7 @@ import type { Ramp, Setup, Step, StepDetectionOptions } from '../steps/types';
 export interface Fitter {
   fitTransient(data: TransientData, options: TransientFitOptions): TransientFit;
   /** Shared-τ fit of several windows; optional (no shared fits without it). */
-  fitSharedTaus?: (windows: TransientData[], options: TransientFitOptions) => SharedTauFitLike;
-}
-
-/** What the pipeline reads from a shared-τ fit (a subset of the fitter's result). */
-export interface SharedTauFitLike {
-  terms: { tauS: { value: number; standardError: number; ci95: [number, number] } }[];
-  converged: boolean;
-  stopReason: string;
-  rmse?: number;
-  n?: number;
-  flags?: { code: string; message: string }[];
+  fitSharedTaus?: (windows: TransientData[], options: TransientFitOptions) => SharedTauFit;
 }
 
 export interface AnalyzeOptions {
@@ -134,14 +124,22 @@ export interface StepJson {
 
 export interface SharedFitJson {
   direction: Step['direction'];
+  /** Drive levels of the first step of the group, SI (the others agree within 2 % of the step or 3 σ). */
   drive_before: number | null;
   drive_after: number | null;
   step_indices: number[];
+  model: { terms: number; dead_time: boolean; drift: boolean; robust: RobustLoss };
+  /** Common time constants, ascending. */
   terms: { tau_s: number | null; tau_se_s: number | null; tau_ci95_s: Ci95 }[];
+  dead_time_s: number | null;
+  dead_time_ci95_s: Ci95 | null;
+  /** Per step of the group (same order as step_indices): final value and amplitudes, response units. */
+  windows: { step_index: number; y_inf: number | null; y_inf_ci95: Ci95; amplitudes: (number | null)[]; rmse: number | null; n: number }[];
   converged: boolean;
   stop_reason: string;
-  rmse: number | null;
-  n: number | null;
+  iterations: number;
+  n: number;
+  dof: number;
   flags: { code: string; message: string }[];
 }
 

@@ -126,6 +126,31 @@ describe('analyzeRecording', () => {
     }
   });
 
+  it('analyzeRecording(repeated steps) adds shared-τ fits of same-direction same-level steps, τ inside the CI', () => {
+    const repeated = [
+      { timeS: 0, value: 0 },
+      { timeS: 30.01, value: 10 * UL_PER_MIN },
+      { timeS: 60.01, value: 0 },
+      { timeS: 90.01, value: 10 * UL_PER_MIN },
+      { timeS: 120.01, value: 0 },
+    ];
+    const rec = syntheticLog({ ...flowDriven, program: repeated, durationS: 150, seed: 34 });
+    const a = analyzeRecording(rec, { fit: { terms: 1 } }, defaultFitter);
+    expect(a.steps).toHaveLength(4);
+    expect(a.shared_fits.map((g) => [g.direction, g.step_indices])).toEqual([
+      ['up', [0, 2]],
+      ['down', [1, 3]],
+    ]);
+    for (const g of a.shared_fits) {
+      expect(g.converged).toBe(true);
+      expect(g.terms).toHaveLength(1);
+      expect(g.terms[0]!.tau_ci95_s[0]!).toBeLessThan(TAU);
+      expect(g.terms[0]!.tau_ci95_s[1]!).toBeGreaterThan(TAU);
+      expect(g.windows.map((w) => w.step_index)).toEqual(g.step_indices);
+    }
+    expect(analyzeRecording(rec, { fit: { terms: 1 }, sharedFits: false }, defaultFitter).shared_fits).toEqual([]);
+  });
+
   it('analyzeRecording(no response channel) throws an InputError naming the channels', () => {
     const rec = syntheticLog({ ...flowDriven, durationS: 20 });
     rec.channels.pop();
