@@ -33,6 +33,7 @@ const specs: OptionSpecs = {
   noise: { type: 'string', valueName: '<level>', description: 'sensor imperfections: none, low, typical (default), high' },
   'pressure-noise': { type: 'string', valueName: '<p>', description: 'pressure noise σ, e.g. "0.2 mbar" (bare number: Pa)' },
   'flow-noise': { type: 'string', valueName: '<q>', description: 'flow noise σ, e.g. "0.01 uL/min" (bare number: m³/s)' },
+  jitter: { type: 'string', valueName: '<s>', description: 'σ of the sampling-time jitter, s (default: from --noise, 0.5–5 % of the sample period)' },
   'sensor-lag': { type: 'string', valueName: '<s>', description: 'first-order lag of the sensors, s' },
   'source-lag': { type: 'string', valueName: '<s>', description: 'first-order lag of the pump or regulator, s (default 0)' },
   bubble: { type: 'string', valueName: '<volume>', description: 'extra trapped air at the compliant node, volume at 1 atm, e.g. "2 uL"' },
@@ -130,6 +131,7 @@ export const simulateCommand: Command = {
     const pressureNoise = quantityOption(stringOption(values, 'pressure-noise'), 'pressure', 'pressure-noise');
     const flowNoise = flowOption(stringOption(values, 'flow-noise'));
     const sensorLag = numberOption(values, 'sensor-lag', { min: 0 });
+    const jitter = numberOption(values, 'jitter', { min: 0 });
     const sourceLag = numberOption(values, 'source-lag', { min: 0 });
     const bubble = quantityOption(stringOption(values, 'bubble'), 'volume', 'bubble');
     const outletHeight = quantityOption(stringOption(values, 'outlet-height'), 'length', 'outlet-height');
@@ -149,6 +151,7 @@ export const simulateCommand: Command = {
       ...(pressureNoise !== undefined ? { pressureNoisePa: pressureNoise } : {}),
       ...(flowNoise !== undefined ? { flowNoiseM3PerS: flowNoise } : {}),
       ...(sensorLag !== undefined ? { sensorLagS: sensorLag } : {}),
+      ...(jitter !== undefined ? { jitterS: jitter } : {}),
       ...(flowOut
         ? { separateFlowLogger: { sampleRateHz: numberOption(values, 'flow-rate', { min: 0, exclusiveMin: true }) ?? rate / 2, clockOffsetS: numberOption(values, 'clock-offset') ?? 0 } }
         : {}),

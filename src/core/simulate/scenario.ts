@@ -36,6 +36,8 @@ export interface ScenarioOptions {
   flowNoiseM3PerS?: number;
   /** Sensor first-order lag, s (overrides the level's). */
   sensorLagS?: number;
+  /** Sampling-time jitter σ, s (overrides the level's, which is a fraction of the sample period). */
+  jitterS?: number;
   build?: BuildOptions;
   /** Which flow the flow sensor sees (default outlet; 'none' for no flow sensor). */
   flowSensor?: 'outlet' | 'inlet' | 'none';
@@ -62,6 +64,13 @@ export interface StepTruth {
   tau_s: number[];
   /** Node compliance at the mean node pressure of the step, m³/Pa. */
   compliance_m3_per_Pa: number;
+  /**
+   * With trapped gas the compliance changes during the step: its values at the pressures before and
+   * after, sorted, m³/Pa (equal when the network is linear). A one-exponential fit lands in between.
+   */
+  compliance_range_m3_per_Pa: [number, number];
+  /** Slowest small-signal τ at the pressures before and after, sorted, s. */
+  tau_range_s: [number, number];
   /** What Δ(drive)/Δ(response) identifies: R_down (flow-driven) or R_up + R_down (pressure-driven), Pa·s/m³. */
   resistance_identified_Pa_s_per_m3: number;
 }
@@ -98,6 +107,8 @@ export interface ScenarioResult {
   built: BuiltNetwork;
   durationS: number;
 }
+
+const sorted = (a: number, b: number): [number, number] => (a <= b ? [a, b] : [b, a]);
 
 const DEFAULT_START_MS = Date.UTC(2026, 2, 2, 9, 0, 0);
 
@@ -155,6 +166,8 @@ export function simulateScenario(chip: ChipDescription, program: Program, option
       outlet_flow_after_m3_per_s: after.q,
       tau_s: timeConstantsAt(net, [built.drive], { [IDS.node]: mean }),
       compliance_m3_per_Pa: nodeComplianceAt(net, IDS.node, mean),
+      compliance_range_m3_per_Pa: sorted(nodeComplianceAt(net, IDS.node, before.p), nodeComplianceAt(net, IDS.node, after.p)),
+      tau_range_s: sorted(timeConstantsAt(net, [built.drive], { [IDS.node]: before.p })[0] ?? 0, timeConstantsAt(net, [built.drive], { [IDS.node]: after.p })[0] ?? 0),
       resistance_identified_Pa_s_per_m3: options.setup === 'flow-driven' ? rDown : rUp + rDown,
     };
   });
@@ -169,7 +182,7 @@ export function simulateScenario(chip: ChipDescription, program: Program, option
   const flowCh: LoggedChannel[] = flowWhere === 'none' ? [] : [{ quantity: 'flow', target: flowWhere === 'outlet' ? built.flowTarget : built.inletFlowTarget, sensor: flowSensor }];
   const setpointCh: LoggedChannel = { quantity: built.drive === 'flow' ? 'flow_setpoint' : 'pressure_setpoint', target: { kind: 'setpoint', channel: built.drive }, sensor: IDEAL_SENSOR };
   const names = options.fileNames ?? ['simulated.csv', 'simulated-flow.csv'];
-  const jitter = (rate: number): number => LEVELS[level].jitter / rate;
+  const jitter = (rate: number): number => options.jitterS ?? LEVELS[level].jitter / rate;
   const loggers: LoggerSpec[] = [];
   if (options.separateFlowLogger && flowCh.length > 0) {
     loggers.push({ name: names[0], sampleRateHz: options.sampleRateHz, jitterS: jitter(options.sampleRateHz), clockOffsetS: 0, channels: [...pressureCh, setpointCh] });
