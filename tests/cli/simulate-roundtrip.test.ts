@@ -83,7 +83,7 @@ describe('simulate → analyze round trips', () => {
     checkSteps(a, t, 4);
   });
 
-  it('flow-driven with a trapped 5 µL bubble: τ and C fall within the gas compliance's range across each step (physics.md §3.3)', async () => {
+  it('flow-driven with a trapped 5 µL bubble: τ and C fall within the range the gas compliance spans across each step (physics.md §3.3)', async () => {
     await cli(['simulate', MIXER, '--program', 'flow.csv', '--out', 'bub.csv', '--bubble', '5 uL', '--seed', '14', '--jitter', '0']);
     const t = JSON.parse(readFileSync(join(dir, 'bub.csv.truth.json'), 'utf8')) as Truth & { trapped_air: { volume_m3_at_atm: number } };
     expect(t.trapped_air.volume_m3_at_atm).toBeCloseTo(5e-9, 20);
