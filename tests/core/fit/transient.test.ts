@@ -46,6 +46,20 @@ describe('fitTransient recovery', () => {
     expect(inside(1.5, fit.terms[1]!.tauS.ci95)).toBe(true);
   });
 
+  it('fitTransient recovers three exponentials (τ 0.1, 1, 6 s) and auto order finds three', () => {
+    const data = synthesize(
+      { n: 8000, windowS: 40, yInf: 5, terms: [{ amplitude: -1.5, tauS: 0.1 }, { amplitude: -1, tauS: 1 }, { amplitude: -0.8, tauS: 6 }], sigma: 0.002 },
+      19,
+    );
+    const fit = fitTransient(data, { terms: 3 });
+    expect(fit.converged).toBe(true);
+    // Three τ at once: check each within 3 SE (a 95 % check on three would fail 14 % of seeds by chance).
+    [0.1, 1, 6].forEach((tau, k) => expect(within3se(tau, fit.terms[k]!.tauS)).toBe(true));
+    const auto = fitTransient(data);
+    expect(auto.model.terms).toBe(3);
+    expect(auto.orderSelection!.candidates.map((c) => c.terms)).toEqual([1, 2, 3]);
+  });
+
   it('fitTransient with deadTime recovers the dead time and holds the pre-step level before it', () => {
     const data = synthesize({ n: 1500, windowS: 12, yInf: 3, terms: [{ amplitude: -2, tauS: 1.2 }], deadTimeS: 0.8, sigma: 0.01 }, 14);
     const fit = fitTransient(data, { terms: 1, deadTime: true });
