@@ -95,7 +95,7 @@ describe.skipIf(!haveBrowser)('desktop renderer in Chromium', () => {
     const onsets = await page.$$eval('[data-testid^="step-item-"] .mono', (els) => els.map((e) => parseFloat(e.textContent ?? '')));
     // Detected onsets within one sample (0.1 s) of the programmed ones (our own synthetic data).
     onsets.forEach((t, i) => expect(Math.abs(t - (run.onsetsS[i] as number))).toBeLessThanOrEqual(0.11));
-    await expect(page.isVisible('[data-testid="pressure-caution"]')).resolves.toBe(true);
+    await expect(page.isVisible('#view-recording [data-testid="pressure-caution"]')).resolves.toBe(true);
     await shot('02-recording');
   });
 
@@ -106,9 +106,10 @@ describe.skipIf(!haveBrowser)('desktop renderer in Chromium', () => {
       await page.waitForSelector('[data-testid="tau-ci-0"]');
       const lo = Number(await page.getAttribute('[data-testid="tau-ci-0"]', 'data-lo'));
       const hi = Number(await page.getAttribute('[data-testid="tau-ci-0"]', 'data-hi'));
-      // True τ = R·C = 4 s by construction (synthetic-log.ts).
-      expect(lo, `step ${i + 1}`).toBeLessThan(run.tauS);
-      expect(hi, `step ${i + 1}`).toBeGreaterThan(run.tauS);
+      // True τ of each step = R·C(p) by construction (synthetic-log.ts).
+      const tau = run.tauS[i] as number;
+      expect(lo, `step ${i + 1}`).toBeLessThan(tau);
+      expect(hi, `step ${i + 1}`).toBeGreaterThan(tau);
       expect(await page.textContent('[data-testid="settled"]')).toBe('settled');
     }
     await page.click('[data-testid="step-tab-1"]');
@@ -133,8 +134,8 @@ describe.skipIf(!haveBrowser)('desktop renderer in Chromium', () => {
     const tauAfter = Number(await page.getAttribute('[data-testid="tau-value-0"]', 'data-si'));
     expect(tauAfter).not.toBe(tauBefore);
     // A first-order response has the same τ from any start inside the window: the refit still finds it.
-    expect(Number(await page.getAttribute('[data-testid="tau-ci-0"]', 'data-lo'))).toBeLessThan(run.tauS);
-    expect(Number(await page.getAttribute('[data-testid="tau-ci-0"]', 'data-hi'))).toBeGreaterThan(run.tauS);
+    expect(Number(await page.getAttribute('[data-testid="tau-ci-0"]', 'data-lo'))).toBeLessThan(run.tauS[1] as number);
+    expect(Number(await page.getAttribute('[data-testid="tau-ci-0"]', 'data-hi'))).toBeGreaterThan(run.tauS[1] as number);
     await page.click('#nav-recording');
     await shot('04-step-moved');
   });
@@ -152,7 +153,15 @@ describe.skipIf(!haveBrowser)('desktop renderer in Chromium', () => {
     expect(await page.$$('[data-testid^="step-item-"]')).toHaveLength(run.onsetsS.length);
   });
 
-  it('with a chip description the diagnosis compares fitted and nominal compliance', async () => {
+  it('re-detecting drops the manual edits and restores the detected steps', async () => {
+    const runs = await analysisRuns();
+    await page.click('[data-testid="redetect"]');
+    await waitForRunsAbove(runs);
+    expect(await page.$$('[data-testid^="step-item-"]')).toHaveLength(run.onsetsS.length);
+    await expect(page.textContent('[data-testid="step-list"]')).resolves.not.toContain('edited');
+  });
+
+  it('with a chip description the diagnosis shows the nominal breakdown and the trapped air', async () => {
     const runs = await analysisRuns();
     const chooser = page.waitForEvent('filechooser');
     await page.click('#btn-chip');
@@ -160,9 +169,16 @@ describe.skipIf(!haveBrowser)('desktop renderer in Chromium', () => {
     await waitForRunsAbove(runs);
     await page.click('#nav-diagnosis');
     await page.waitForSelector('[data-testid="breakdown-chart"]');
-    const summary = await page.textContent('[data-testid="compliance-summary"]');
-    expect(summary).toContain('Nominal C');
-    expect(await page.isVisible('[data-testid="pressure-caution"]')).toBe(true);
+    expect(await page.textContent('[data-testid="compliance-summary"]')).toContain('Nominal C');
+    await page.waitForSelector('[data-testid="fingerprint-chart"]');
+    // The log was made with V_atm = 5 µL of air (synthetic-log.ts): the 95 % CI must contain it.
+    const lo = Number(await page.getAttribute('[data-testid="trapped-air-volume"]', 'data-lo'));
+    const hi = Number(await page.getAttribute('[data-testid="trapped-air-volume"]', 'data-hi'));
+    expect(lo).toBeGreaterThan(0);
+    expect(lo).toBeLessThan(run.vAtmM3);
+    expect(hi).toBeGreaterThan(run.vAtmM3);
+    expect((await page.textContent('[data-testid="trapped-air-conclusion"]'))?.length ?? 0).toBeGreaterThan(10);
+    expect(await page.isVisible('#view-diagnosis [data-testid="pressure-caution"]')).toBe(true);
     await shot('05-diagnosis');
   });
 
@@ -188,7 +204,8 @@ describe.skipIf(!haveBrowser)('desktop renderer in Chromium', () => {
     const work = JSON.parse(readFileSync((await d.path()) as string, 'utf8'));
     expect(work.format).toBe('lagbench-work');
     expect(work.inputs[0].sha256).toMatch(/^[0-9a-f]{64}$/);
-    expect(work.stepEdits.map((e: { action: string }) => e.action)).toEqual(['move', 'add', 'delete']);
+    expect(work.stepEdits).toEqual([]);
+    expect(work.steps).toBeNull();
     expect(work.chip.name).toBe('pdms-mixer.json');
   });
 

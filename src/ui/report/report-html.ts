@@ -47,7 +47,7 @@ const STYLE = `
 body{font:14px/1.5 system-ui,-apple-system,'Segoe UI','DejaVu Sans',sans-serif;color:#18201d;background:#fff;max-width:1100px;margin:24px auto;padding:0 24px}
 h1{font-size:24px;margin:0 0 4px}h2{font-size:18px;margin:28px 0 8px;border-bottom:2px solid #0d7466;padding-bottom:3px}h3{font-size:15px;margin:18px 0 6px}
 table{border-collapse:collapse;width:100%;font-size:13px;margin:6px 0}th,td{border-bottom:1px solid #d5dcd9;padding:4px 7px;text-align:left;vertical-align:top}
-th{font-size:12px;text-transform:uppercase;letter-spacing:.04em;color:#4a5752}td.n{text-align:right;font-family:ui-monospace,'DejaVu Sans Mono',monospace}
+th{font-size:12px;color:#4a5752}td.n{text-align:right;font-family:ui-monospace,'DejaVu Sans Mono',monospace}
 .caution{background:#fff4de;border:1px solid #9a5b00;border-radius:6px;padding:8px 12px;margin:10px 0}
 .muted{color:#6d7a75}.mono{font-family:ui-monospace,'DejaVu Sans Mono',monospace;font-size:12px;word-break:break-all}
 img{max-width:100%;height:auto;border:1px solid #e2e7e5;border-radius:4px;margin:4px 0}

@@ -3,7 +3,7 @@
  * recording at full resolution and answers with what the views draw. Every result comes from the core;
  * pieces of the core that have not landed yet are reported as unavailable, never imitated.
  */
-import { InputError, type Warning } from '../../core/errors';
+import { InputError } from '../../core/errors';
 import { createLogParser } from '../../core/import';
 import type { ImportReport } from '../../core/import/types';
 import type { Recording } from '../../core/recording/types';
@@ -12,7 +12,7 @@ import type { Setup, Step } from '../../core/steps/types';
 import { fitTransient, evaluateTransient } from '../../core/fit/transient';
 import type { TransientData, TransientFit } from '../../core/fit/types';
 import { analyzeRecording } from '../../core/analyze/analyze';
-import { computeDiagnosis, capabilitiesOfPhysics, stepPhysics } from './physics-bridge';
+import { capabilitiesOfPhysics, runPhysics } from './physics-bridge';
 import { decimateMinMax, lowerBound } from './decimate';
 import type { AnalysisView, Capabilities, RecordingSummary, SeriesSet, StepFitView, StepsResult, WorkerRequest, WorkerResponse } from './protocol';
 
@@ -129,17 +129,18 @@ function analyze(req: Extract<WorkerRequest, { type: 'analyze' }>, progress: (f:
       steps,
       fit: { terms: req.fit.terms, deadTime: req.fit.deadTime, drift: req.fit.drift, robust: req.fit.robust },
       sharedFits: false,
-      onProgress: (f, stage) => progress(0.8 * f, `Fitting: ${stage}`),
+      onProgress: (f, stage) => progress(0.85 * f, `Fitting: ${stage}`),
       software: { name: 'lagbench', version: 'app' },
     },
     fitter,
   );
+  progress(0.85, 'Physics');
+  const physics = runPhysics(json, recording, req.setup, req.chipText, req.chipName);
   const fits: StepFitView[] = [];
   let call = 0;
-  json.steps.forEach((sj, i) => {
+  physics.json.steps.forEach((sj, i) => {
     const notFitted = sj.warnings.some((w) => w.code === 'window-too-short');
     const captured = notFitted ? undefined : calls[call++];
-    const step = steps[i] as Step;
     const fit = captured?.fit ?? null;
     const data = captured?.data;
     const keep = data ? thin(data.tS.length, MAX_DRAW_POINTS) : [];
@@ -147,7 +148,7 @@ function analyze(req: Extract<WorkerRequest, { type: 'analyze' }>, progress: (f:
     const y = Float64Array.from(keep, (k) => data?.y[k] as number);
     const fitY = fit ? evaluateTransient(fit, tS) : new Float64Array(0);
     const residual = fit ? Float64Array.from(y, (v, k) => v - (fitY[k] as number)) : new Float64Array(0);
-    const physics = fit ? stepPhysics(req.setup, step, fit, sj.response.quantity) : null;
+    const ph = physics.steps[i];
     fits.push({
       stepIndex: i,
       onsetS: sj.start_s,
@@ -160,20 +161,24 @@ function analyze(req: Extract<WorkerRequest, { type: 'analyze' }>, progress: (f:
       residual,
       fit,
       error: fit ? null : sj.warnings.map((w) => w.message).join(' ') || 'No fit was made for this step.',
-      resistancePaSPerM3: physics?.resistance ?? null,
-      complianceM3PerPa: physics?.compliance ?? null,
-      pressureAbsPa: physics?.pressureAbsPa ?? null,
-      notes: physics?.notes ?? [],
-      warnings: [...sj.warnings.map((w) => ({ code: w.code, message: w.message })), ...(physics?.warnings ?? [])],
+      resistancePaSPerM3: ph?.resistance ?? null,
+      complianceM3PerPa: ph?.compliance ?? null,
+      pressureAbsPa: ph?.pressureAbsPa ?? null,
+      notes: ph?.notes ?? [],
+      warnings: sj.warnings.map((w) => ({ code: w.code, message: w.message })),
     });
   });
-  progress(0.9, 'Diagnosis');
-  const diagnosis = computeDiagnosis(req.setup, fits, req.chipText, req.chipName);
   return {
     setup: json.setup,
     fits,
-    ...diagnosis,
-    warnings: json.warnings.map((w): Warning => ({ code: w.code, message: w.message, count: w.count })),
+    fittedComplianceM3PerPa: physics.fittedComplianceM3PerPa,
+    nominal: physics.nominal,
+    nominalNote: physics.nominalNote,
+    fingerprint: physics.fingerprint,
+    fingerprintNote: physics.fingerprintNote,
+    trappedAir: physics.trappedAir,
+    trappedAirNote: physics.trappedAirNote,
+    warnings: physics.warnings,
   };
 }
 

@@ -1,89 +1,22 @@
 /**
- * The physics the app shows, all computed by the core: R and C per step (src/core/circuits), the
- * nominal prediction from a chip description (src/core/chip, src/core/nominal), and — when
- * src/core/bubbles lands — the trapped-air estimate and the pressure fingerprint. Missing pieces
- * are reported as "not available yet" with the reason, never approximated here.
+ * The physics the app shows, all computed by the core: the analysis's physics stage
+ * (src/core/analyze/physics.ts: R and C per step, trapped air), the nominal prediction with its
+ * breakdown (src/core/nominal) and the pressure fingerprint line (src/core/bubbles) for the plot.
+ * This file only maps core results to the view models.
  */
-import type { Warning } from '../../core/errors';
-import { InputError } from '../../core/errors';
-import type { TransientFit } from '../../core/fit/types';
-import type { Quantity } from '../../core/recording/types';
-import type { Setup, Step } from '../../core/steps/types';
-import { estimateFlowDriven, estimatePressureDriven } from '../../core/circuits';
-import type { PhysicalEstimate } from '../../core/circuits';
+import { InputError, type Warning } from '../../core/errors';
+import type { AnalysisJson } from '../../core/analyze/types';
+import { addPhysics, STANDARD_ATMOSPHERE_PA, type AnalysisWithPhysicsJson } from '../../core/analyze/physics';
+import type { Recording } from '../../core/recording/types';
+import type { Setup } from '../../core/steps/types';
 import { parseChipDescription } from '../../core/chip';
+import type { ChipDescription } from '../../core/chip';
 import { predictNominal } from '../../core/nominal';
-import type { Capabilities, ComplianceSource, FingerprintView, NominalView, ShownEstimate, StepFitView, TrappedAirView } from './protocol';
-
-/** Standard atmosphere, Pa (ISO 2533; used only when no chip description gives the ambient pressure). */
-export const STANDARD_ATMOSPHERE_PA = 101_325;
+import { pressureFingerprint } from '../../core/bubbles';
+import type { Capabilities, ComplianceSource, FingerprintView, NominalView, ShownEstimate, TrappedAirView } from './protocol';
 
 export function capabilitiesOfPhysics(): Pick<Capabilities, 'circuits' | 'chip' | 'nominal' | 'trappedAir' | 'fingerprint'> {
-  return { circuits: true, chip: true, nominal: true, trappedAir: false, fingerprint: false };
-}
-
-const shown = (e: PhysicalEstimate | null | undefined): ShownEstimate | null => (e ? { value: e.value, ci95: e.ci95, inconclusive: e.inconclusive } : null);
-
-export interface StepPhysics {
-  resistance: ShownEstimate | null;
-  compliance: ShownEstimate | null;
-  pressureAbsPa: number | null;
-  notes: string[];
-  warnings: Warning[];
-}
-
-/** R and C of one step from its fit (core/circuits), for the setup the user chose. */
-export function stepPhysics(setup: Setup, step: Step, fit: TransientFit, responseQuantity: Quantity, ambientPa = STANDARD_ATMOSPHERE_PA): StepPhysics | null {
-  const before = step.drive.before;
-  const after = step.drive.after;
-  if (!Number.isFinite(before) || !Number.isFinite(after)) return null;
-  try {
-    if (setup === 'flow-driven' && responseQuantity === 'pressure') {
-      const est = estimateFlowDriven({ pressureFit: fit, flowBeforeM3PerS: before, flowAfterM3PerS: after });
-      const start = fit.yInf.value + fit.terms.reduce((s, t) => s + t.amplitude.value, 0);
-      return {
-        resistance: shown(est.resistancePaSPerM3),
-        compliance: shown(est.complianceM3PerPa),
-        // The node's mean gauge pressure over the step (start and end plateaus), made absolute.
-        pressureAbsPa: (start + fit.yInf.value) / 2 + ambientPa,
-        notes: est.notes,
-        warnings: est.warnings,
-      };
-    }
-    if (setup === 'pressure-driven' && responseQuantity === 'flow') {
-      const est = estimatePressureDriven({ flowFit: fit, sensor: 'outlet', pressureBeforePa: before, pressureAfterPa: after });
-      return {
-        resistance: shown(est.resistancePaSPerM3),
-        compliance: shown(est.complianceM3PerPa),
-        pressureAbsPa: null,
-        notes: ['Flow sensor taken as downstream of the chip (outlet).', ...est.notes],
-        warnings: est.warnings,
-      };
-    }
-  } catch (err) {
-    if (err instanceof InputError) return { resistance: null, compliance: null, pressureAbsPa: null, notes: [], warnings: [{ code: err.code, message: err.message }] };
-    throw err;
-  }
-  return null;
-}
-
-/** Inverse-variance weighted mean of the per-step compliances (95 % CI from the pooled SE, normal). */
-function pooledCompliance(fits: StepFitView[]): ShownEstimate | null {
-  let w = 0;
-  let wx = 0;
-  for (const f of fits) {
-    const c = f.complianceM3PerPa;
-    if (!c || c.inconclusive || !Number.isFinite(c.value)) continue;
-    const se = (c.ci95[1] - c.ci95[0]) / (2 * 1.959964);
-    if (!(se > 0)) continue;
-    w += 1 / (se * se);
-    wx += c.value / (se * se);
-  }
-  if (w === 0) return null;
-  const mean = wx / w;
-  const se = Math.sqrt(1 / w);
-  // 1.959964 = 97.5 % quantile of the standard normal (Abramowitz & Stegun 1964, table 26.5).
-  return { value: mean, ci95: [mean - 1.959964 * se, mean + 1.959964 * se] };
+  return { circuits: true, chip: true, nominal: true, trappedAir: true, fingerprint: true };
 }
 
 const SOURCE_LABEL: Record<string, string> = {
@@ -95,7 +28,17 @@ const SOURCE_LABEL: Record<string, string> = {
   measured: 'measured extras',
 };
 
-export interface Diagnosis {
+export interface StepPhysicsView {
+  resistance: ShownEstimate | null;
+  compliance: ShownEstimate | null;
+  complianceSe: number | null;
+  pressureAbsPa: number | null;
+  notes: string[];
+}
+
+export interface PhysicsResult {
+  json: AnalysisWithPhysicsJson;
+  steps: StepPhysicsView[];
   fittedComplianceM3PerPa: ShownEstimate | null;
   nominal: NominalView | null;
   nominalNote: string | null;
@@ -103,49 +46,117 @@ export interface Diagnosis {
   fingerprintNote: string | null;
   trappedAir: TrappedAirView | null;
   trappedAirNote: string | null;
+  warnings: Warning[];
 }
 
-export function computeDiagnosis(setup: Setup, fits: StepFitView[], chipText: string | null, chipName: string | null): Diagnosis {
-  const fitted = pooledCompliance(fits);
+const finite = (x: number | null | undefined): x is number => typeof x === 'number' && Number.isFinite(x);
+
+function estimate(value: number | null, ci: [number | null, number | null], inconclusive: unknown): ShownEstimate | null {
+  if (!finite(value)) return null;
+  return { value, ci95: [ci[0] ?? Number.NaN, ci[1] ?? Number.NaN], inconclusive: inconclusive === true };
+}
+
+function nominalView(chip: ChipDescription, setup: Setup): NominalView {
+  const p = predictNominal(chip, setup);
+  const bySource = new Map<string, ComplianceSource>();
+  for (const item of p.compliance.breakdown) {
+    if (!item.counted) continue;
+    const label = SOURCE_LABEL[item.source] ?? item.source;
+    const r = item.complianceM3PerPa;
+    const prev = bySource.get(label);
+    if (prev) {
+      prev.valueM3PerPa += r.nominal;
+      if (prev.rangeM3PerPa) prev.rangeM3PerPa = [prev.rangeM3PerPa[0] + r.low, prev.rangeM3PerPa[1] + r.high];
+    } else bySource.set(label, { source: label, valueM3PerPa: r.nominal, rangeM3PerPa: [r.low, r.high] });
+  }
+  return {
+    resistancePaSPerM3: p.resistance.totalPaSPerM3.nominal,
+    complianceM3PerPa: p.compliance.totalM3PerPa.nominal,
+    complianceRangeM3PerPa: [p.compliance.totalM3PerPa.low, p.compliance.totalM3PerPa.high],
+    breakdown: [...bySource.values()],
+    tauS: p.tauS.nominal,
+    notes: [...p.notes, ...p.warnings.map((w) => w.message)],
+  };
+}
+
+/** Runs the core's physics stage on an analysis and maps it for the views. */
+export function runPhysics(analysis: AnalysisJson, recording: Recording, setup: Setup, chipText: string | null, chipName: string | null): PhysicsResult {
+  let chip: ChipDescription | undefined;
   let nominal: NominalView | null = null;
   let nominalNote: string | null = null;
-  if (chipText === null) {
-    nominalNote = 'No chip description loaded: load one to compare the fitted compliance with what the design should give.';
-  } else {
+  if (chipText === null) nominalNote = 'No chip description loaded: load one to compare the fitted compliance with what the design should give.';
+  else {
     try {
-      const chip = parseChipDescription(chipText, chipName ?? 'chip.json');
-      const p = predictNominal(chip, setup);
-      const bySource = new Map<string, ComplianceSource>();
-      for (const item of p.compliance.breakdown) {
-        if (!item.counted) continue;
-        const label = SOURCE_LABEL[item.source] ?? item.source;
-        const prev = bySource.get(label);
-        const r = item.complianceM3PerPa;
-        if (prev) {
-          prev.valueM3PerPa += r.nominal;
-          if (prev.rangeM3PerPa) prev.rangeM3PerPa = [prev.rangeM3PerPa[0] + r.low, prev.rangeM3PerPa[1] + r.high];
-        } else bySource.set(label, { source: label, valueM3PerPa: r.nominal, rangeM3PerPa: [r.low, r.high] });
-      }
-      nominal = {
-        resistancePaSPerM3: p.resistance.totalPaSPerM3.nominal,
-        complianceM3PerPa: p.compliance.totalM3PerPa.nominal,
-        complianceRangeM3PerPa: [p.compliance.totalM3PerPa.low, p.compliance.totalM3PerPa.high],
-        breakdown: [...bySource.values()],
-        tauS: p.tauS.nominal,
-        notes: [...p.notes, ...p.warnings.map((w) => w.message)],
-      };
+      chip = parseChipDescription(chipText, chipName ?? 'chip.json');
+      nominal = nominalView(chip, setup);
     } catch (err) {
       if (!(err instanceof InputError)) throw err;
       nominalNote = `The chip description could not be read: ${err.message}`;
     }
   }
+  const json = addPhysics(analysis, recording, chip ? { chip } : {});
+  const ambientPa = chip?.ambientPressurePa ?? STANDARD_ATMOSPHERE_PA;
+  const steps: StepPhysicsView[] = json.steps.map((s) => {
+    const ph = s.physics as { resistance_inconclusive?: unknown; compliance_inconclusive?: unknown; compliance_se?: number | null; notes?: unknown };
+    return {
+      resistance: estimate(s.resistance_Pa_s_per_m3, s.resistance_ci95, ph.resistance_inconclusive),
+      compliance: estimate(s.compliance_m3_per_Pa, s.compliance_ci95, ph.compliance_inconclusive),
+      complianceSe: finite(ph.compliance_se) ? ph.compliance_se : null,
+      pressureAbsPa: finite(s.pressure_abs_Pa) ? s.pressure_abs_Pa : null,
+      notes: Array.isArray(ph.notes) ? ph.notes.filter((n): n is string => typeof n === 'string') : [],
+    };
+  });
+
+  // Pooled C over conclusive steps (inverse-variance weights), for the fitted-vs-nominal bar.
+  let sw = 0;
+  let swx = 0;
+  for (const s of steps) {
+    if (!s.compliance || s.compliance.inconclusive || !s.complianceSe) continue;
+    sw += 1 / s.complianceSe ** 2;
+    swx += s.compliance.value / s.complianceSe ** 2;
+  }
+  // 1.959964: 97.5 % quantile of the standard normal (Abramowitz & Stegun 1964, table 26.1).
+  const pooled = sw > 0 ? { value: swx / sw, ci95: [swx / sw - 1.959964 / Math.sqrt(sw), swx / sw + 1.959964 / Math.sqrt(sw)] as [number, number] } : null;
+
+  // The fingerprint line for the plot (the same core fit the physics stage makes).
+  const points = steps.flatMap((s, i) => (s.compliance && s.pressureAbsPa !== null ? [{ i, c: s.compliance, se: s.complianceSe, p: s.pressureAbsPa }] : []));
+  const fp = pressureFingerprint(points.map((x) => ({ complianceM3PerPa: x.c.value, ...(x.se ? { standardError: x.se } : {}), pressureAbsPa: x.p })), { ambientPressurePa: ambientPa });
+  let fingerprint: FingerprintView | null = null;
+  let fingerprintNote: string | null = null;
+  if (fp.rigidComplianceM3PerPa && fp.volumeM3AtAtm !== null && fp.ci95) {
+    fingerprint = {
+      points: points.map((x) => ({ stepIndex: x.i, pressureAbsPa: x.p, complianceM3PerPa: x.c.value, ci95: x.c.ci95 })),
+      cRigidM3PerPa: { value: fp.rigidComplianceM3PerPa.value, ci95: fp.rigidComplianceM3PerPa.ci95 },
+      vAtmM3: { value: fp.volumeM3AtAtm, ci95: fp.ci95 },
+      ambientPa,
+    };
+  } else fingerprintNote = fp.statement;
+
+  const ta = json.trapped_air;
+  let trappedAir: TrappedAirView | null = null;
+  let trappedAirNote: string | null = null;
+  if (ta && finite(ta.volume_m3_at_atm)) {
+    const lo = ta.ci95[0];
+    trappedAir = {
+      volumeM3AtAtm: { value: ta.volume_m3_at_atm, ci95: [lo ?? Number.NaN, ta.ci95[1] ?? Number.NaN] },
+      volumeM3AtWorking: null,
+      method: ta.method === 'pressure-fingerprint' ? `pressure fingerprint over ${ta.steps_used ?? '?'} steps at ${ta.pressure_levels ?? '?'} pressure levels` : `excess over the nominal compliance (${ta.steps_used ?? '?'} steps)`,
+      evidence: ta.evidence_of_gas ? 'gas' : finite(lo) ? 'none' : 'inconclusive',
+      conclusion: ta.statement,
+    };
+  } else {
+    trappedAirNote = ta?.statement ?? json.warnings.find((w) => w.code === 'trapped-air-not-assessed')?.message ?? 'Trapped air could not be assessed from these steps.';
+  }
   return {
-    fittedComplianceM3PerPa: fitted,
+    json,
+    steps,
+    fittedComplianceM3PerPa: pooled,
     nominal,
     nominalNote,
-    fingerprint: null,
-    fingerprintNote: 'The pressure fingerprint (C against 1/p_abs²) is not available yet: the trapped-air module (src/core/bubbles) has not landed in this build.',
-    trappedAir: null,
-    trappedAirNote: 'The trapped-air estimate is not available yet: the trapped-air module (src/core/bubbles) has not landed in this build.',
+    fingerprint,
+    fingerprintNote,
+    trappedAir,
+    trappedAirNote,
+    warnings: json.warnings.map((w) => ({ code: w.code, message: w.message, ...(w.count !== undefined ? { count: w.count } : {}) })),
   };
 }
