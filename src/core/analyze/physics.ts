@@ -120,12 +120,24 @@ function preStepLevel(recording: Recording, values: Float64Array, previousOnsetS
   return { value: level.value, standardError: level.standardError };
 }
 
-/** Which side of the compliant node a flow sensor sits on, from the sign of the slow amplitude (§4.3). */
-function sensorFromShape(step: StepJson): 'inlet' | 'outlet' {
+/**
+ * Which side of the compliant node a flow sensor sits on, from the sign of the slow amplitude (§4.3):
+ * an inlet sensor jumps past the plateau and decays (a has the sign of Δp), an outlet sensor rises
+ * (opposite sign). Null when the amplitude is not significant (|a| < 2 SE): the shape cannot tell.
+ */
+function sensorFromShape(step: StepJson): 'inlet' | 'outlet' | null {
   const slow = step.terms[step.terms.length - 1];
   const dp = (step.drive.after ?? 0) - (step.drive.before ?? 0);
-  // inlet: jumps past the plateau and decays (a has the sign of Δp); outlet: rises (opposite sign).
-  return (slow?.amplitude ?? 0) * dp > 0 ? 'inlet' : 'outlet';
+  const a = slow?.amplitude ?? null;
+  const se = slow?.amplitude_se ?? null;
+  if (a === null || se === null || !(Math.abs(a) > 2 * se) || dp === 0) return null;
+  return a * dp > 0 ? 'inlet' : 'outlet';
+}
+
+/** Whether a step's fit can carry physics across steps (trapped air, trends): converged and resolved. */
+function usableAcrossSteps(step: StepJson): boolean {
+  const flags = step.fit?.flags.map((f) => f.code) ?? [];
+  return !step.inconclusive && step.fit?.converged === true && !flags.includes('tau-below-resolution');
 }
 
 interface StepContext {
@@ -219,7 +231,9 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
         flowBalance = flowBalanceFor(ctx, step, response);
       }
     } else {
-      const sensor = ctx.options.flowSensor && ctx.options.flowSensor !== 'auto' ? ctx.options.flowSensor : sensorFromShape(step);
+      const given = ctx.options.flowSensor && ctx.options.flowSensor !== 'auto' ? ctx.options.flowSensor : null;
+      const fromShape = given ? null : sensorFromShape(step);
+      const sensor = given ?? fromShape ?? 'outlet';
       const flowBefore = response ? preStepLevel(ctx.recording, response, ctx.previousOnsetS, step.start_s) : undefined;
       const up = sensor === 'outlet' ? upstreamFromOptions(ctx) : undefined;
       extra.baseline = flowBefore ? 'mean flow at the end of the previous level' : "the fit's start level y∞ + Σaᵢ";
@@ -233,7 +247,11 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
       });
       estimate = pd;
       extra.flow_sensor = sensor;
-      extra.flow_sensor_from = ctx.options.flowSensor && ctx.options.flowSensor !== 'auto' ? 'given' : 'response shape (inlet jumps and decays, outlet rises)';
+      extra.flow_sensor_from = given
+        ? 'given'
+        : fromShape
+          ? 'response shape (inlet jumps and decays, outlet rises)'
+          : 'assumed outlet (the response shape is not significant enough to tell)';
       extra.upstream_resistance_Pa_s_per_m3 = estJson(pd.upstreamResistancePaSPerM3);
       extra.upstream_resistance_source = up ? up.source : pd.upstreamResistanceSource;
       extra.downstream_resistance_Pa_s_per_m3 = estJson(pd.downstreamResistancePaSPerM3);
@@ -374,7 +392,7 @@ export function addPhysics(analysis: AnalysisJson, recording: Recording, options
   // be made, the one with the narrower 95 % CI is reported (it is the more informative one).
   const withC = steps
     .map((s, i) => ({ s, c: estimates[i]?.complianceM3PerPa ?? null }))
-    .filter((x): x is { s: StepWithPhysicsJson; c: PhysicalEstimate } => x.c !== null && Number.isFinite(x.c.value) && x.s.pressure_abs_Pa !== null);
+    .filter((x): x is { s: StepWithPhysicsJson; c: PhysicalEstimate } => x.c !== null && Number.isFinite(x.c.value) && x.s.pressure_abs_Pa !== null && usableAcrossSteps(x.s));
   const fingerprint = pressureFingerprint(
     withC.map((x) => ({ complianceM3PerPa: x.c.value, standardError: x.c.standardError, pressureAbsPa: x.s.pressure_abs_Pa as number })),
     { ambientPressurePa: ambientPa },
@@ -405,7 +423,10 @@ export function addPhysics(analysis: AnalysisJson, recording: Recording, options
   if (trapped === null) {
     topWarnings.push({
       code: 'trapped-air-not-assessed',
-      message: `Trapped air not assessed: ${fingerprint.statement.replace(/^Inconclusive: /, '')}${nominal ? '' : ' Give a chip description (--chip) to compare with the nominal compliance'}`.trim(),
+      message:
+        withC.length === 0
+          ? 'Trapped air not assessed: no step gives a usable compliance (fits inconclusive, not converged or τ below the time resolution).'
+          : `Trapped air not assessed: ${fingerprint.statement.replace(/^Inconclusive: /, '')}${nominal ? '' : ' Give a chip description (--chip) to compare with the nominal compliance.'}`,
     });
   }
 
