@@ -5,10 +5,12 @@
  */
 import { readFileSync } from 'node:fs';
 import { analyzeRecording } from '../core/analyze/analyze';
+import { addPhysics } from '../core/analyze/physics';
+import { parseChipDescription } from '../core/chip/parse';
 import { defaultFitter } from '../core/analyze/default-fitter';
 import { InputError } from '../core/errors';
 import { chipIdFor } from '../core/qc/chip-id';
-import { measurementFromAnalysis } from '../core/qc/from-analysis';
+import { measurementFromAnalysis, nominalComplianceParts } from '../core/qc/from-analysis';
 import { stepCurves, type StepCurve } from '../core/qc/step-curves';
 import type { ChipMeasurement } from '../core/qc/types';
 import { readLogFile } from '../io/read-log';
@@ -22,6 +24,8 @@ export interface QcJob {
   displayPath: string;
   chipIdFrom: string | null;
   drive: 'flow-driven' | 'pressure-driven' | null;
+  /** Chip description (text and the name it is shown by) for the nominal prediction and trapped air. */
+  chip: { text: string; displayPath: string } | null;
 }
 
 export interface QcJobValue {
@@ -31,6 +35,10 @@ export interface QcJobValue {
   measurement: ChipMeasurement;
   steps: StepCurve[];
   setup: string;
+  /** Nominal compliance parts (physics stage with a chip description), m³/Pa. */
+  nominal: { parts: { label: string; complianceM3PerPa: number }[]; totalM3PerPa: number } | null;
+  /** Trapped-air method and statement of the physics stage. */
+  trappedAirNote: string | null;
 }
 
 export type QcJobResult = { ok: true; value: QcJobValue } | { ok: false; displayPath: string; message: string; inputError: boolean };
@@ -46,14 +54,26 @@ export async function runQcJob(job: QcJob): Promise<QcJobResult> {
     const sha256 = sha256Hex(bytes);
     const { recording } = await readLogFile(job.path, {}, undefined, job.displayPath);
     const chipId = chipIdFor(job.chipIdFrom, job.displayPath, recording.metadata);
-    const analysis = analyzeRecording(
+    const base = analyzeRecording(
       recording,
       { setup: job.drive ?? undefined, software: { name: 'lagbench', version: VERSION } },
       defaultFitter,
     );
+    const chip = job.chip ? parseChipDescription(job.chip.text, job.chip.displayPath) : undefined;
+    const analysis = addPhysics(base, recording, chip ? { chip } : {});
+    const air = analysis.trapped_air;
     return {
       ok: true,
-      value: { displayPath: job.displayPath, sha256, chipId, measurement: measurementFromAnalysis(analysis, chipId), steps: stepCurves(recording, analysis), setup: analysis.setup },
+      value: {
+        displayPath: job.displayPath,
+        sha256,
+        chipId,
+        measurement: measurementFromAnalysis(analysis, chipId),
+        steps: stepCurves(recording, analysis),
+        setup: analysis.setup,
+        nominal: nominalComplianceParts(analysis),
+        trappedAirNote: air ? `Method: ${air.method}. ${air.statement}` : null,
+      },
     };
   } catch (err) {
     return {

@@ -8,14 +8,15 @@ import { EXIT } from '../../src/cli/io';
 import { captureIo } from '../helpers/cli-io';
 
 // A simulated lot (invented data, src/core/simulate via `lagbench simulate`): the PDMS mixer chip of
-// sample-logs/chips/pdms-mixer.json driven by the flow steps of sample-logs/programs/flow-steps.csv.
-// Chips 2 and 4 carry trapped air. Truth (simulator summary): τ ≈ 3.09 s without air, ≈ 3.5 s with
-// 2 µL and more with 4 µL (the gas adds ≈ V/p of compliance, physics.md §3.3, τ = R·C).
+// sample-logs/chips/pdms-mixer.json driven by flow steps 2 → 5 → 10 → 5 → 2 µL/min. Chips 2 and 4 carry
+// trapped air. Truth (simulator summary): R = 4.991 mbar/(µL/min), C = 10.33 nL/mbar = 103.3 nL/kPa and
+// τ ≈ 3.09 s without air; 2 µL of air adds ≈ V/p ≈ 15 nL/kPa at ≈ 1.15 bar (physics.md §3.3), so
+// C ≈ 118 nL/kPa and τ ≈ 3.5 s (τ = R·C) — beyond the spec's C ≤ 110 nL/kPa and t₉₅ ≤ 10 s.
 const REPO = process.cwd();
 let dir = '';
 const BUBBLES: Record<string, string | null> = { 'M2-001': null, 'M2-002': '2uL', 'M2-003': null, 'M2-004': '4uL', 'M2-005': null };
 
-async function simulate(out: string, seed: number, bubble: string | null, program = join(REPO, 'sample-logs/programs/flow-steps.csv')): Promise<void> {
+async function simulate(out: string, seed: number, bubble: string | null, program = join(dir, 'steps.prog')): Promise<void> {
   const io = captureIo(dir);
   const args = ['simulate', join(REPO, 'sample-logs/chips/pdms-mixer.json'), '--program', program, '--out', out, '--seed', String(seed)];
   if (bubble) args.push('--bubble', bubble);
@@ -25,9 +26,13 @@ async function simulate(out: string, seed: number, bubble: string | null, progra
 beforeAll(async () => {
   dir = mkdtempSync(join(tmpdir(), 'lagbench-qc-'));
   mkdirSync(join(dir, 'lot-A'));
+  writeFileSync(join(dir, 'steps.prog'), '# invented demo program\ntime_s,flow[uL/min]\n0,2\n15,5\n45,10\n75,5\n105,2\n');
   let seed = 11;
   for (const [chip, bubble] of Object.entries(BUBBLES)) await simulate(join(dir, 'lot-A', `${chip}.csv`), seed++, bubble);
   copyFileSync(join(REPO, 'qc-specs/pdms-mixer-m2-settling.json'), join(dir, 'settling.json'));
+  const full = JSON.parse(readFileSync(join(REPO, 'qc-specs/pdms-mixer-m2.json'), 'utf8')) as { test: { chip_description: string } };
+  full.test.chip_description = join(REPO, 'sample-logs/chips/pdms-mixer.json');
+  writeFileSync(join(dir, 'full.json'), JSON.stringify(full));
 });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
@@ -37,7 +42,26 @@ interface Summary {
 }
 
 describe('lagbench qc', () => {
-  it('qc <lot folder> rejects exactly the chips with trapped air, exits 3, records them and writes reports', async () => {
+  it('qc <lot folder> --spec pdms-mixer-m2 rejects exactly the chips with trapped air (C and t₉₅ fail, R passes)', async () => {
+    const io = captureIo(dir);
+    const code = await runCli(['qc', 'lot-A', '--spec', 'full.json', '--db', 'full.sqlite', '--report-dir', 'full-reports', '--json'], io);
+    const summary = JSON.parse(io.stdoutText()) as Summary & { chips: { checks: { check: string; verdict: string }[]; quantities_si: { resistance: { value: number } } }[] };
+    expect(summary.chips.filter((c) => c.verdict === 'fail').map((c) => c.chip_id).sort()).toEqual(['M2-002', 'M2-004']);
+    expect(summary.chips.filter((c) => c.verdict === 'pass').map((c) => c.chip_id).sort()).toEqual(['M2-001', 'M2-003', 'M2-005']);
+    for (const c of summary.chips) {
+      // R is not changed by air: it passes everywhere and matches the simulator's 4.991 mbar/(µL/min) = 2.995e13 Pa·s/m³ within 1 %.
+      expect(c.checks.find((x) => x.check === 'resistance')?.verdict).toBe('pass');
+      expect(c.quantities_si.resistance.value / 2.9946e13).toBeCloseTo(1, 1);
+      const air = BUBBLES[c.chip_id ?? ''];
+      expect(c.checks.find((x) => x.check === 'compliance')?.verdict).toBe(air ? 'fail' : 'pass');
+    }
+    expect(code).toBe(EXIT.qcFailed);
+    const html = readFileSync(join(dir, 'full-reports', 'M2-002.html'), 'utf8');
+    expect(html).toContain('Compliance breakdown');
+    expect(html).toContain('Estimated trapped-air volume');
+  });
+
+  it('qc <lot folder> --spec settling rejects exactly the chips with trapped air, exits 3, records them and writes reports', async () => {
     const io = captureIo(dir);
     const code = await runCli(['qc', 'lot-A', '--spec', 'settling.json', '--lot', 'A', '--operator', 'J. Doe', '--json'], io);
     const summary = JSON.parse(io.stdoutText()) as Summary;

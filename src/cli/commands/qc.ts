@@ -4,7 +4,8 @@
  * Exit: 0 all pass, 3 any chip failed, 4 none failed but some inconclusive/retest, 2 bad input.
  */
 import { readdirSync, readFileSync, statSync } from 'node:fs';
-import { join, relative, resolve } from 'node:path';
+import { dirname, join, relative, resolve } from 'node:path';
+import { parseChipDescription } from '../../core/chip/parse';
 import { InputError } from '../../core/errors';
 import { formatNumber } from '../../core/qc/format';
 import { checkChipIdSource, parseQcSpec } from '../../core/qc/spec';
@@ -34,6 +35,8 @@ Options:
   --spec <file>             acceptance spec (JSON), required
   --chip-id-from <source>   filename:<regex with one (group)> or metadata:<key>
                             (default: the spec's chip_id_from, else the file name without extension)
+  --chip <file>             chip description for the nominal R and C and the trapped-air estimate
+                            (default: the spec's test.chip_description, relative to the spec file)
   --operator <name>         who ran the test (recorded)
   --lot <name>              lot name (recorded; also writes the lot report lot-<name>.html)
   --db <file>               QC record store (default: ${DEFAULT_QC_STORE} in the current folder)
@@ -55,6 +58,7 @@ interface QcArgs {
   inputs: string[];
   spec: string | null;
   chipIdFrom: string | null;
+  chip: string | null;
   operator: string | null;
   lot: string | null;
   db: string;
@@ -64,7 +68,7 @@ interface QcArgs {
 }
 
 function parseArgs(args: string[]): QcArgs {
-  const out: QcArgs = { inputs: [], spec: null, chipIdFrom: null, operator: null, lot: null, db: DEFAULT_QC_STORE, reportDir: 'qc-reports', jobs: null, json: false };
+  const out: QcArgs = { inputs: [], spec: null, chipIdFrom: null, chip: null, operator: null, lot: null, db: DEFAULT_QC_STORE, reportDir: 'qc-reports', jobs: null, json: false };
   const valueOf = (k: number, name: string): string => {
     const v = args[k + 1];
     if (v === undefined || (v.startsWith('--') && v.length > 2)) throw new UsageError(`${name} needs a value.`);
@@ -82,6 +86,7 @@ function parseArgs(args: string[]): QcArgs {
     switch (flag) {
       case '--spec': out.spec = take(); break;
       case '--chip-id-from': out.chipIdFrom = take(); break;
+      case '--chip': out.chip = take(); break;
       case '--operator': out.operator = take(); break;
       case '--lot': out.lot = take(); break;
       case '--db': out.db = take(); break;
@@ -123,6 +128,22 @@ function collectLogs(inputs: string[], cwd: string): { path: string; display: st
   return out;
 }
 
+/** The chip description named by --chip (relative to cwd) or the spec (relative to the spec file), validated. */
+function readChipDescription(a: QcArgs, spec: QcSpec, cwd: string): { text: string; displayPath: string; sha256: string } | null {
+  const given = a.chip ?? spec.test.chipDescription;
+  if (given === null) return null;
+  const abs = a.chip !== null ? resolve(cwd, a.chip) : resolve(dirname(resolve(cwd, a.spec ?? '.')), given);
+  const displayPath = relative(cwd, abs) || abs;
+  let text: string;
+  try {
+    text = readFileSync(abs, 'utf8');
+  } catch {
+    throw new InputError('file-not-found', 'The chip description cannot be read', a.chip !== null ? 'Check the path given to --chip' : 'Check test.chip_description in the spec (a path relative to the spec file)', { file: displayPath });
+  }
+  parseChipDescription(text, displayPath); // fail early (exit 2) with a located message
+  return { text, displayPath, sha256: sha256Hex(text) };
+}
+
 interface ChipOutcome {
   displayPath: string;
   chipId: string | null;
@@ -137,10 +158,7 @@ interface ChipOutcome {
 /** Builds the report input of one analysed chip. */
 export function chipReportInput(spec: QcSpec, value: QcJobValue, evaluation: ChipEvaluation, trace: ChipReportInput['trace']): ChipReportInput {
   const q = value.measurement.quantities;
-  const breakdown =
-    q.compliance && q.excess_compliance
-      ? { parts: [{ label: 'nominal (predicted)', complianceM3PerPa: q.compliance.value - q.excess_compliance.value }], nominalTotalM3PerPa: q.compliance.value - q.excess_compliance.value, fitted: q.compliance }
-      : null;
+  const breakdown = value.nominal ? { parts: value.nominal.parts, nominalTotalM3PerPa: value.nominal.totalM3PerPa, fitted: q.compliance ?? null } : null;
   return {
     spec,
     measurement: value.measurement,
@@ -148,7 +166,7 @@ export function chipReportInput(spec: QcSpec, value: QcJobValue, evaluation: Chi
     trace,
     steps: value.steps,
     breakdown,
-    trappedAir: q.trapped_air ? { volumeM3: q.trapped_air, absolutePressurePa: null, note: null } : null,
+    trappedAir: q.trapped_air ? { volumeM3: q.trapped_air, absolutePressurePa: null, note: value.trappedAirNote } : null,
   };
 }
 
@@ -206,8 +224,10 @@ export const qcCommand: Command = {
     const logs = collectLogs(a.inputs, io.cwd);
     if (logs.length === 0) throw new InputError('no-logs', `No log files (${LOG_EXTENSIONS.join(', ')}) were found`, 'Give a folder with logs or name the log files', { file: a.inputs.join(', ') });
     const chipIdFrom = a.chipIdFrom ?? spec.chipIdFrom;
-    const jobs: QcJob[] = logs.map((l) => ({ path: l.path, displayPath: l.display, chipIdFrom, drive: spec.test.drive }));
-    const settings = { chip_id_from: chipIdFrom, drive: spec.test.drive, analysis: 'defaults' };
+    const chip = readChipDescription(a, spec, io.cwd);
+    const jobs: QcJob[] = logs.map((l) => ({ path: l.path, displayPath: l.display, chipIdFrom, drive: spec.test.drive, chip: chip ? { text: chip.text, displayPath: chip.displayPath } : null }));
+    const settings = { chip_id_from: chipIdFrom, drive: spec.test.drive, analysis: 'defaults', chip_description_sha256: chip?.sha256 ?? null };
+    const chipInput = chip ? [{ path: chip.displayPath, sha256: chip.sha256 }] : [];
     const reportDir = resolve(io.cwd, a.reportDir);
     const dbPath = resolve(io.cwd, a.db);
     const store = openQcStore(dbPath);
@@ -231,7 +251,7 @@ export const qcCommand: Command = {
         try {
           record = recordChip(store, {
             chipId: v.chipId, lot: a.lot, operator: a.operator, recordedAt, specText, specSha256, specDesign: spec.design.name,
-            inputs: [{ path: v.displayPath, sha256: v.sha256 }], softwareVersion: VERSION, settings, measurement: v.measurement, evaluation,
+            inputs: [{ path: v.displayPath, sha256: v.sha256 }, ...chipInput], softwareVersion: VERSION, settings, measurement: v.measurement, evaluation,
           });
         } catch (err) {
           return { displayPath: v.displayPath, chipId: v.chipId, evaluation, value: v, record: null, reports: [], error: `not recorded: ${err instanceof Error ? err.message : String(err)}`, inputError: false };
@@ -242,7 +262,7 @@ export const qcCommand: Command = {
         stems.add(stem);
         const trace: ChipReportInput['trace'] = {
           chipId: v.chipId, lot: a.lot, operator: stored?.operator ?? a.operator, recordedAt: stored?.recordedAt ?? recordedAt,
-          specDesign: spec.design.name, specSha256, inputs: [{ path: v.displayPath, sha256: v.sha256 }], softwareVersion: stored?.softwareVersion ?? VERSION,
+          specDesign: spec.design.name, specSha256, inputs: [{ path: v.displayPath, sha256: v.sha256 }, ...chipInput], softwareVersion: stored?.softwareVersion ?? VERSION,
           settings, record: { status: record.status, id: record.id, store: dbPath },
         };
         const reports = writeChipReports(reportDir, stem, chipReportInput(spec, v, evaluation, trace));

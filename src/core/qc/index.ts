@@ -9,6 +9,6 @@ export * from './lot-stats';
 export * from './control-chart';
 export * from './lot-summary';
 export { combineEstimates, fromCi } from './combine';
-export { measurementFromAnalysis, readPhysicsQuantity } from './from-analysis';
+export { measurementFromAnalysis, readPhysicsQuantity, nominalComplianceParts } from './from-analysis';
 export { stepCurves, modelCurve, type StepCurve } from './step-curves';
 export { chipIdFor, fileStem } from './chip-id';

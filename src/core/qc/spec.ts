@@ -95,10 +95,10 @@ function readSpec(v: unknown, add: Add): QcSpec | null {
       description: str(v.design, 'description', ['design'], add, false),
     };
   }
-  let test: QcSpec['test'] = { setup: '', program: '', notes: null, drive: null };
+  let test: QcSpec['test'] = { setup: '', program: '', notes: null, drive: null, chipDescription: null };
   if (!isObj(v.test)) add(v.test === undefined ? [] : ['test'], v.test === undefined ? 'Missing field "test"' : '"test" must be an object', 'Write "test": { "setup": "…", "program": "…" }');
   else {
-    checkKeys(v.test, ['setup', 'program', 'notes', 'drive'], ['test'], add);
+    checkKeys(v.test, ['setup', 'program', 'notes', 'drive', 'chip_description'], ['test'], add);
     let drive: QcSpec['test']['drive'] = null;
     if (v.test.drive !== undefined) {
       if (v.test.drive !== 'flow-driven' && v.test.drive !== 'pressure-driven') add(['test', 'drive'], `"drive" is ${JSON.stringify(v.test.drive)}`, 'Write "flow-driven" (a pump sets the flow) or "pressure-driven" (a regulator sets the pressure)');
@@ -109,6 +109,7 @@ function readSpec(v: unknown, add: Add): QcSpec | null {
       program: str(v.test, 'program', ['test'], add, true) ?? '',
       notes: str(v.test, 'notes', ['test'], add, false),
       drive,
+      chipDescription: str(v.test, 'chip_description', ['test'], add, false),
     };
   }
   const limits: QcLimit[] = [];

@@ -60,6 +60,8 @@ export interface QcSpec {
     notes: string | null;
     /** How the chip is driven in the test (analysis setup); null = inferred from the log. */
     drive: 'flow-driven' | 'pressure-driven' | null;
+    /** Chip description file (path relative to the spec file) for the nominal prediction; null = none. */
+    chipDescription: string | null;
   };
   limits: QcLimit[];
   fitQuality: {

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { AnalysisJson, StepJson } from '../../../src/core/analyze/types';
 import { combineEstimates } from '../../../src/core/qc/combine';
-import { measurementFromAnalysis, readPhysicsQuantity } from '../../../src/core/qc/from-analysis';
+import { measurementFromAnalysis, nominalComplianceParts, readPhysicsQuantity } from '../../../src/core/qc/from-analysis';
 import { modelCurve } from '../../../src/core/qc/step-curves';
 
 function step(index: number, tau: number, se: number, extra: Partial<StepJson> = {}): StepJson {
@@ -58,19 +58,50 @@ describe('measurementFromAnalysis', () => {
     expect(measurementFromAnalysis(analysis([step(0, 3, 0.1, { inconclusive: true })]), 'C').inconclusive[0]?.reason).toMatch(/none of the 1 step/);
   });
 
-  it('measurementFromAnalysis reads R, C and trapped air from the physics stage when present', () => {
-    const physics = { resistance_Pa_s_per_m3: 3e13, resistance_ci95_Pa_s_per_m3: [2.9e13, 3.1e13], compliance_m3_per_Pa: 1e-13, compliance_se_m3_per_Pa: 1e-15, trapped_air: { trapped_air_volume_m3: 2e-9, trapped_air_volume_ci95_m3: [1.5e-9, 2.5e-9] } };
-    const m = measurementFromAnalysis(analysis([step(0, 3, 0.1, { physics })]), 'C');
+  it('measurementFromAnalysis reads R, C, excess compliance and trapped air from the physics stage', () => {
+    const fields = {
+      resistance_Pa_s_per_m3: 3e13, resistance_ci95: [2.9e13, 3.1e13], compliance_m3_per_Pa: 1e-13, compliance_ci95: [0.98e-13, 1.02e-13],
+      physics: { resistance_inconclusive: false, compliance_se: 1e-15, compliance_inconclusive: false, excess_compliance_m3_per_Pa: 2e-14, excess_compliance_ci95: [1e-14, 3e-14] },
+    };
+    const a = { ...analysis([step(0, 3, 0.1, fields as Partial<StepJson>)]), trapped_air: { volume_m3_at_atm: 2e-9, ci95: [1.5e-9, 2.5e-9], method: 'excess-compliance', statement: 'gas found' } };
+    const m = measurementFromAnalysis(a, 'C');
     expect(m.quantities.resistance).toMatchObject({ value: 3e13, ci95: [2.9e13, 3.1e13] });
+    // SE from the CI half-width / z₀.₉₇₅ (1.959964, normal table) when the SE is not given.
     expect(m.quantities.resistance?.standardError).toBeCloseTo(0.1e13 / 1.959964, -6);
     expect(m.quantities.compliance?.standardError).toBe(1e-15);
-    expect(m.quantities.trapped_air?.value).toBe(2e-9);
-    expect(readPhysicsQuantity(undefined, 'resistance', 'Pa_s_per_m3')).toBeNull();
+    expect(m.quantities.excess_compliance?.ci95).toEqual([1e-14, 3e-14]);
+    expect(m.quantities.trapped_air).toMatchObject({ value: 2e-9, ci95: [1.5e-9, 2.5e-9] });
+  });
+
+  it('measurementFromAnalysis(R marked inconclusive by the physics) leaves R out and marks it inconclusive', () => {
+    const fields = { resistance_Pa_s_per_m3: 3e13, resistance_ci95: [1e13, 5e13], physics: { resistance_inconclusive: true } };
+    const m = measurementFromAnalysis(analysis([step(0, 3, 0.1, fields as Partial<StepJson>)]), 'C');
+    expect(m.quantities.resistance).toBeUndefined();
+    expect(m.inconclusive).toEqual([{ quantity: 'resistance', reason: expect.stringMatching(/inconclusive/) }]);
+    expect(readPhysicsQuantity([undefined], 'resistance', 'Pa_s_per_m3')).toEqual({ value: null, inconclusive: false });
   });
 
   it('modelCurve evaluates y∞ + a·exp(−t/τ) from the step parameters', () => {
     const y = modelCurve(step(0, 2, 0.1), [0, 2])!;
     expect(y[0]).toBeCloseTo(0, 9);
     expect(y[1]).toBeCloseTo(1000 - 1000 * Math.exp(-1), 9);
+  });
+});
+
+describe('nominalComplianceParts', () => {
+  it('nominalComplianceParts reads the nominal ranges of the physics stage, counted parts only', () => {
+    const a = {
+      ...analysis([]),
+      nominal: {
+        compliance_m3_per_Pa: { low: 0.5e-13, nominal: 1e-13, high: 2e-13 },
+        breakdown: [
+          { element: 'tubing', source: 'walls', compliance_m3_per_Pa: { low: 1, nominal: 6e-14, high: 1 }, counted: true },
+          { element: 'chip', source: 'walls', compliance_m3_per_Pa: { low: 1, nominal: 4e-14, high: 1 }, counted: true },
+          { element: 'syringe', source: 'plunger', compliance_m3_per_Pa: { low: 1, nominal: 9e-14, high: 1 }, counted: false },
+        ],
+      },
+    };
+    expect(nominalComplianceParts(a)).toEqual({ parts: [{ label: 'tubing: walls', complianceM3PerPa: 6e-14 }, { label: 'chip: walls', complianceM3PerPa: 4e-14 }], totalM3PerPa: 1e-13 });
+    expect(nominalComplianceParts(analysis([]))).toBeNull();
   });
 });
