@@ -47,7 +47,7 @@ export async function readLogFile(path: string, options: ImportOptions = {}, onP
   } catch (err) {
     throw fileError(displayName, err);
   }
-  const parser = createLogParser({ ...options, sourceName: displayName });
+  const parser = createLogParser({ ...options, sourceName: displayName, sizeHintChars: size });
   try {
     const buffer = Buffer.allocUnsafe(CHUNK_BYTES);
     let decoder: TextDecoder | null = null;

@@ -55,10 +55,21 @@ export function createLogParser(options: ImportOptions = {}): LogParser {
   };
 
   const start = (final: boolean): void => {
-    checkText(pending);
-    layout = detectLayout(pending, final, options);
+    // detection looks at the first ~64 KB only (the first chunk may be 4 MB)
+    const sampleFinal = final && pending.length <= DETECTION_SAMPLE_CHARS;
+    const sample = sampleFinal ? pending : pending.slice(0, DETECTION_SAMPLE_CHARS);
+    checkText(sample);
+    layout = detectLayout(sample, sampleFinal, options);
     plan = planColumns(layout, options);
+    let expectedRows: number | undefined;
+    if (options.sizeHintChars !== undefined && !sampleFinal) {
+      const bodySample = sample.length - layout.bodyStartOffset;
+      let lines = 0;
+      for (let i = sample.indexOf('\n', layout.bodyStartOffset); i >= 0; i = sample.indexOf('\n', i + 1)) lines++;
+      if (lines > 0) expectedRows = Math.ceil((options.sizeHintChars / (bodySample / lines)) * 1.05) + 16;
+    }
     body = new BodyParser({
+      expectedRows,
       sourceName: file,
       delimiter: layout.delimiter,
       decimal: layout.decimal,

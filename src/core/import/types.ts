@@ -53,6 +53,8 @@ export interface ImportOptions {
   sortTime?: boolean;
   /** Drop rows whose time repeats the previous row's (the first is kept) instead of refusing them. */
   dropRepeatedTime?: boolean;
+  /** Size of the whole text in characters (≈ bytes), when known: lets the parser allocate its columns once. */
+  sizeHintChars?: number;
 }
 
 /** How a column's quantity or unit was decided. */
