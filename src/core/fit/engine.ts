@@ -77,7 +77,7 @@ export function fitShape(windows: ScaledWindow[], shape: ModelShape, opts: Engin
   const starts = opts.startAlpha ?? gridStarts(windows[0]!, shape, opts.dtScaled, shape.terms === 1 ? 1 : 2);
   if (starts.length === 0) return null;
   // Noisy data: a gradient cosine of 1e-9 puts x within ~1e-7 standard errors of the optimum (n ≤ 1e6).
-  const solverOpts = { maxIterations: opts.maxIterations, gradientTolerance: 1e-9 };
+  const solverOpts = { maxIterations: opts.maxIterations, gradientTolerance: 1e-9, refineJointly: false };
 
   const plain = exponentialProblem(windows, shape, { lower, upper });
   let best: SeparableResult | null = null;

@@ -167,7 +167,18 @@ export function fullProblem(prob: SeparableProblem): LeastSquaresProblem {
  * Solve a separable problem from a start for the nonlinear parameters only: variable projection
  * first, then a joint refinement of [α, c] (exact Jacobian, Gauss–Newton polish).
  */
-export function solveSeparable(prob: SeparableProblem, alpha0: ArrayLike<number>, options: LeastSquaresOptions = {}): SeparableResult {
+export function solveSeparable(
+  prob: SeparableProblem,
+  alpha0: ArrayLike<number>,
+  options: LeastSquaresOptions & {
+    /**
+     * Refine [α, c] jointly after the projected stage (default true). The projected optimum is a stationary point
+     * of the full problem, so for noisy data the joint stage only adds cost; without it the full Jacobian is
+     * evaluated once at the projected optimum (for the covariance) when that stage converged.
+     */
+    refineJointly?: boolean;
+  } = {},
+): SeparableResult {
   const { n, nNonlinear: m, nLinear: q } = prob;
   const projector = new Projector(prob);
   const col = new Float64Array(n);
@@ -189,7 +200,30 @@ export function solveSeparable(prob: SeparableProblem, alpha0: ArrayLike<number>
   const x0 = new Float64Array(m + q);
   x0.set(stage1.x);
   x0.set(projector.c, m);
-  const stage2 = solveLeastSquares(fullProblem(prob), x0, options);
+  const full = fullProblem(prob);
+  if (options.refineJointly === false && stage1.converged) {
+    const residuals = new Float64Array(n);
+    const jacobian = new Float64Array(n * (m + q));
+    full.residuals(x0, residuals);
+    full.jacobian(x0, jacobian);
+    let ssr = 0;
+    for (let i = 0; i < n; i++) ssr += residuals[i]! * residuals[i]!;
+    return {
+      x: x0,
+      ssr,
+      residuals,
+      jacobian,
+      converged: true,
+      stopReason: stage1.stopReason,
+      iterations: 0,
+      evaluations: stage1.evaluations + 1,
+      atBound: [...stage1.atBound, ...new Array<boolean>(q).fill(false)],
+      alpha: x0.slice(0, m),
+      linear: x0.slice(m),
+      projectedStage: { converged: stage1.converged, stopReason: stage1.stopReason, iterations: stage1.iterations },
+    };
+  }
+  const stage2 = solveLeastSquares(full, x0, options);
   // If the joint stage failed but the projected one converged, report the projected optimum honestly.
   const result = stage2;
   return {
