@@ -25,7 +25,7 @@ import { VERSION } from '../version';
 const HELP = `Usage: lagbench qc <folder|log…> --spec <spec.json> [options]
 
 Signs chips off against an acceptance spec (docs/qc-spec.md). Every log (a folder: all .csv, .tsv,
-.txt, .log and .dat files in it) is analysed in parallel; each chip gets pass, fail or inconclusive
+.txt, .log and .dat files in it, except *.program.*, *.truth.* and README*) is analysed in parallel; each chip gets pass, fail or inconclusive
 with the reason for every limit, is recorded in the QC record store, and gets an HTML/CSV/JSON report.
 
 Rule: a limit passes when the whole 95 % CI lies inside it, fails when the whole CI lies outside it,
@@ -53,6 +53,8 @@ inconclusive (or to be retested), 2 bad input (spec, logs or options; the batch 
 `;
 
 const LOG_EXTENSIONS = ['.csv', '.tsv', '.txt', '.log', '.dat'];
+/** Files in a lot folder that are not logs: step programs, simulator truth, read-me files. */
+const SKIPPED_NAMES = /(\.program\.|\.truth\.|^readme)/i;
 
 interface QcArgs {
   inputs: string[];
@@ -120,7 +122,7 @@ function collectLogs(inputs: string[], cwd: string): { path: string; display: st
     }
     if (st.isDirectory()) {
       const names = readdirSync(abs)
-        .filter((n) => !n.startsWith('.') && LOG_EXTENSIONS.some((e) => n.toLowerCase().endsWith(e)))
+        .filter((n) => !n.startsWith('.') && !SKIPPED_NAMES.test(n) && LOG_EXTENSIONS.some((e) => n.toLowerCase().endsWith(e)))
         .sort();
       for (const n of names) if (statSync(join(abs, n)).isFile()) out.push({ path: join(abs, n), display: join(input, n) });
     } else out.push({ path: abs, display: input });
