@@ -75,7 +75,10 @@ export function analyzeRecording(recording: Recording, options: AnalyzeOptions, 
   }
 
   progress(0.9, 'shared fits');
-  const shared = options.sharedFits === false || !fitter.fitSharedTaus ? [] : sharedFits(detection, windows, fits, options, fitter);
+  const shared =
+    options.sharedFits === false || !fitter.fitSharedTaus
+      ? []
+      : sharedFits(detection, (step) => cutWindow(recording.timeS, response.values, step, endS, sharedPoints(maxPoints)), fits, options, fitter);
   const inconclusive = stepsJson.filter((s) => s.inconclusive).length;
   const all: WarningJson[] = warnings.map(warningJson);
   if (inconclusive > 0) {
@@ -180,9 +183,27 @@ function stepJson(step: Step, response: Channel, samples: number, samplesPerPoin
   };
 }
 
+/** Points per window in a shared fit: fewer than alone, since a group may hold many windows. */
+export const SHARED_FIT_POINTS_PER_WINDOW = 1000;
+function sharedPoints(maxPoints: number): number {
+  return maxPoints > 0 ? Math.min(maxPoints, SHARED_FIT_POINTS_PER_WINDOW) : SHARED_FIT_POINTS_PER_WINDOW;
+}
+
+/** Median of the orders chosen for the group's single fits (rounded up); the given order when fixed. */
+function groupOrder(group: Step[], fits: (TransientFit | null)[], given: AnalyzeOptions['fit']): 1 | 2 | 3 {
+  if (given?.terms !== undefined && given.terms !== 'auto') return given.terms;
+  const orders = group.map((s) => fits[s.index]?.model.terms ?? 1).sort((a, b) => a - b);
+  return Math.min(3, Math.max(1, orders[Math.floor(orders.length / 2)] ?? 1)) as 1 | 2 | 3;
+}
+
+/**
+ * Shared-τ fits of same-direction, same-level steps. Each window is block-averaged to at most
+ * SHARED_FIT_POINTS_PER_WINDOW points (τ unchanged, windows.ts) and the order is the median of the
+ * orders the single fits chose, so that a group of many long windows stays affordable.
+ */
 function sharedFits(
   detection: StepDetection,
-  windows: ReturnType<typeof cutWindow>[],
+  windowOf: (step: Step) => ReturnType<typeof cutWindow>,
   fits: (TransientFit | null)[],
   options: AnalyzeOptions,
   fitter: Fitter,
@@ -194,9 +215,9 @@ function sharedFits(
   const out: SharedFitJson[] = [];
   for (const group of groups) {
     const first = group[0] as Step;
-    const data = group.map((s) => (windows[s.index] as (typeof windows)[number]).data);
+    const data = group.map((s) => windowOf(s).data);
     try {
-      const shared = fitter.fitSharedTaus?.(data, options.fit ?? {});
+      const shared = fitter.fitSharedTaus?.(data, { ...options.fit, terms: groupOrder(group, fits, options.fit) });
       if (!shared) continue;
       out.push({
         direction: first.direction,

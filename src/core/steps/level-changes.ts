@@ -81,7 +81,9 @@ export function findLevelChanges(timeS: Float64Array, values: ArrayLike<number>,
   }
   const dt = medianSpacing(timeS);
   const sigma = noiseSigmaFromDifferences(x);
-  const f = runningMedian(x, options.spikeWidthSamples ?? 5);
+  // A noise-free channel (a commanded setpoint: σ = 0) needs no spike filter; a single-sample glitch
+  // there becomes two changes that fail the dwell rule below.
+  const f = sigma === 0 ? x : runningMedian(x, options.spikeWidthSamples ?? 5);
   let scale = 0;
   for (let i = 0; i < n; i++) scale = Math.max(scale, Math.abs(f[i] as number));
   // 8 σ: chance of a noise excursion that large is negligible even over millions of samples (common practice, no source).
