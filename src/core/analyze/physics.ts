@@ -218,6 +218,9 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
   }
   let estimate: CircuitEstimate;
   let gaugePa = Number.NaN;
+  // Node gauge pressure settled before and after the step (for the secant pressure of the fingerprint).
+  let nodeBeforePa = Number.NaN;
+  let nodeAfterPa = Number.NaN;
   let flowBalance: FlowBalanceEstimate | null = null;
   const extra: Record<string, unknown> = {};
   try {
@@ -226,6 +229,8 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
       const pressureBefore = response ? preStepLevel(ctx.recording, response, ctx.previousOnsetS, step.start_s) : undefined;
       estimate = estimateFlowDriven({ pressureFit: fit, flowBeforeM3PerS: before, flowAfterM3PerS: after, ...(pressureBefore ? { pressureBefore } : {}) });
       extra.baseline = pressureBefore ? 'mean pressure at the end of the previous level' : "the fit's start level y∞ + Σaᵢ";
+      nodeBeforePa = pressureBefore?.value ?? fit.yInf.value + fit.terms.reduce((a, t) => a + t.amplitude.value, 0);
+      nodeAfterPa = fit.yInf.value;
       if (response) {
         gaugePa = windowMean(ctx.recording.timeS, response, step.start_s, step.end_s).value;
         flowBalance = flowBalanceFor(ctx, step, response);
@@ -259,12 +264,16 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
       const pressure = ctx.recording.channels.find((c) => c.quantity === 'pressure');
       if (pressure) {
         gaugePa = windowMean(ctx.recording.timeS, pressure.values, step.start_s, step.end_s).value;
+        nodeBeforePa = preStepLevel(ctx.recording, pressure.values, ctx.previousOnsetS, step.start_s)?.value ?? Number.NaN;
+        nodeAfterPa = windowMean(ctx.recording.timeS, pressure.values, step.end_s - 0.2 * (step.end_s - step.start_s), step.end_s).value;
         extra.pressure_from = `mean of ${pressure.name} during the step`;
       } else {
         const rd = pd.downstreamResistancePaSPerM3?.value;
         const rt = pd.resistancePaSPerM3?.value;
         const share = rd !== undefined && rt !== undefined && rd > 0 && rt > 0 ? rd / rt : 1;
         gaugePa = after * share;
+        nodeBeforePa = before * share;
+        nodeAfterPa = after * share;
         extra.pressure_from = share === 1 ? 'drive level after the step (node pressure not logged; an upper bound)' : 'drive level × R_down/R_total (steady-state divider, §4.3)';
       }
     }
@@ -274,6 +283,11 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
   }
   warnings.push(...estimate.warnings);
   const pAbs = ctx.ambientPa + gaugePa;
+  // Secant pressure √(p_a·p_b) (absolute, before and after): a gas pocket stores ΔV = V_atm·p_atm·(1/p_a − 1/p_b),
+  // so its step compliance ΔV/Δp is exactly V_atm·p_atm/(p_a·p_b) (Boyle, §3.3; derived here).
+  const pa = ctx.ambientPa + nodeBeforePa;
+  const pb = ctx.ambientPa + nodeAfterPa;
+  const secantPAbs = pa > 0 && pb > 0 ? Math.sqrt(pa * pb) : pAbs;
   const r = estimate.resistancePaSPerM3;
   const c = estimate.complianceM3PerPa;
   const physics: Record<string, unknown> = {
@@ -284,6 +298,7 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
     resistance_inconclusive: r ? r.inconclusive : true,
     compliance_se: num(c?.standardError),
     compliance_inconclusive: c ? c.inconclusive : true,
+    secant_pressure_abs_Pa: num(secantPAbs),
     ...extra,
     flow_balance: flowBalance
       ? {
@@ -394,7 +409,11 @@ export function addPhysics(analysis: AnalysisJson, recording: Recording, options
     .map((s, i) => ({ s, c: estimates[i]?.complianceM3PerPa ?? null }))
     .filter((x): x is { s: StepWithPhysicsJson; c: PhysicalEstimate } => x.c !== null && Number.isFinite(x.c.value) && x.s.pressure_abs_Pa !== null && usableAcrossSteps(x.s));
   const fingerprint = pressureFingerprint(
-    withC.map((x) => ({ complianceM3PerPa: x.c.value, standardError: x.c.standardError, pressureAbsPa: x.s.pressure_abs_Pa as number })),
+    withC.map((x) => ({
+      complianceM3PerPa: x.c.value,
+      standardError: x.c.standardError,
+      pressureAbsPa: typeof x.s.physics.secant_pressure_abs_Pa === 'number' ? x.s.physics.secant_pressure_abs_Pa : (x.s.pressure_abs_Pa as number),
+    })),
     { ambientPressurePa: ambientPa },
   );
   const candidates: { json: TrappedAirJson; warnings: Warning[] }[] = [];
