@@ -19,6 +19,8 @@ export interface AppState {
   capabilities: Capabilities | null;
   files: OpenFile[];
   importOptions: ImportOptions[];
+  /** Start of the second log on the first log's time axis, s (null = align by absolute timestamps). */
+  mergeOffsetS: number | null;
   recording: RecordingSummary | null;
   overview: SeriesSet | null;
   setup: Setup;
@@ -41,6 +43,7 @@ export function initialState(): AppState {
     capabilities: null,
     files: [],
     importOptions: [],
+    mergeOffsetS: null,
     recording: null,
     overview: null,
     setup: 'flow-driven',

@@ -249,7 +249,7 @@ export class App {
     try {
       this.status(`Reading ${s.files.map((f) => f.name).join(', ')}…`);
       const copies = s.files.map((f) => ({ name: f.name, bytes: f.bytes.slice() }));
-      s.recording = await this.worker.request('import', { files: copies, options: s.importOptions, mergeOffsetS: null }, (f, label) => this.progress(f, label), copies.map((c) => c.bytes.buffer));
+      s.recording = await this.worker.request('import', { files: copies, options: s.importOptions, mergeOffsetS: s.files.length > 1 ? s.mergeOffsetS : null }, (f, label) => this.progress(f, label), copies.map((c) => c.bytes.buffer));
       if (adoptSetup) s.setup = s.recording.suggestedSetup;
       s.overview = await this.worker.request('series', { fromS: null, toS: null, maxPoints: OVERVIEW_POINTS });
       this.progress(null);

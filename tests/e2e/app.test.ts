@@ -197,7 +197,7 @@ describe.skipIf(!haveBrowser)('desktop renderer in Chromium', () => {
     await shot('06-report');
   });
 
-  it('saves the work with input hashes and the manual step edits', async () => {
+  it('saves the work with input hashes, the chip reference and no step edits after re-detection', async () => {
     const download = page.waitForEvent('download');
     await page.click('[data-testid="save-work"]');
     const d = await download;
@@ -218,6 +218,54 @@ describe.skipIf(!haveBrowser)('desktop renderer in Chromium', () => {
     await page.click('#nav-recording');
     await shot('08-recording-dark');
     await page.click('#btn-theme');
+  });
+
+  it('reopening the saved work asks for the log, checks its hash and restores the step edits', async () => {
+    // Make an edit, save the work, then reopen it after loading something else.
+    await page.click('#nav-recording');
+    await page.click('[data-testid="step-item-2"]');
+    let runs = await analysisRuns();
+    await page.keyboard.press('ArrowLeft');
+    await waitForRunsAbove(runs);
+    const editedOnset = await page.textContent('[data-testid="step-item-2"] .mono');
+    const download = page.waitForEvent('download');
+    await page.click('#btn-save-work');
+    const saved = join(work, 'saved.lagbench.json');
+    await (await download).saveAs(saved);
+    runs = await analysisRuns();
+    await page.click('[data-testid="redetect"]');
+    await waitForRunsAbove(runs);
+    expect(await page.textContent('[data-testid="step-item-2"] .mono')).not.toBe(editedOnset);
+    // Reopen: the work file names the log; the browser asks for it again.
+    runs = await analysisRuns();
+    const chooser = page.waitForEvent('filechooser');
+    await page.setInputFiles('#file-input-work', saved);
+    await (await chooser).setFiles(join(work, 'flow-run.csv'));
+    await waitForRunsAbove(runs);
+    await page.click('#nav-recording');
+    expect(await page.textContent('[data-testid="step-item-2"] .mono')).toBe(editedOnset);
+    await expect(page.textContent('[data-testid="step-item-2"]')).resolves.toContain('edited');
+  });
+
+  it('reopening refuses a log whose bytes differ from the saved hash', async () => {
+    writeFileSync(join(work, 'other.csv'), run.text.replace('# Lab', '# Changed lab'));
+    const chooser = page.waitForEvent('filechooser');
+    await page.setInputFiles('#file-input-work', join(work, 'saved.lagbench.json'));
+    await (await chooser).setFiles(join(work, 'other.csv'));
+    await page.waitForFunction(() => /SHA-256 differs/.test(document.getElementById('status-text')?.textContent ?? ''));
+  });
+
+  it('two logs of one run are merged onto one time base', async () => {
+    await page.setInputFiles('#file-input-logs', [join(process.cwd(), 'sample-logs', 'pressure-logger-iso.csv'), join(process.cwd(), 'sample-logs', 'flow-logger-iso.tsv')]);
+    await page.click('#nav-import');
+    await page.waitForSelector('[data-testid="columns-1"]');
+    const summary = await page.textContent('#view-import');
+    // The faster log (20 Hz, sample-logs/README.md) sets the time base.
+    expect(summary).toMatch(/Mean rate\s*20(\.0+)? Hz/);
+    expect(summary).toContain('Two logs of one run');
+    expect(summary).toContain('Pressure [kPa]');
+    expect(summary).toContain('Flow [nL/s]');
+    await shot('09-two-logs-import');
   });
 
   it('produced no page errors and no remote requests', () => {

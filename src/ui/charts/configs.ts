@@ -179,8 +179,10 @@ export function fingerprintConfig(fp: FingerprintView, c: ChartColors, interacti
   const xOf = (pAbs: number): number => 1 / (pAbs / 1e5) ** 2;
   const pts = fp.points.map((p) => ({ x: xOf(p.pressureAbsPa), y: p.complianceM3PerPa * f }));
   const xs = pts.map((p) => p.x);
-  const x0 = 0;
-  const x1 = Math.max(...xs, 1) * 1.08;
+  // Show the data's span (with margins) rather than down to 1/p² = 0, where only the intercept lives.
+  const span = Math.max(...xs) - Math.min(...xs) || Math.max(...xs) * 0.1;
+  const x0 = Math.max(0, Math.min(...xs) - 0.25 * span);
+  const x1 = Math.max(...xs) + 0.25 * span;
   // C(x) with x = 1/p² in bar⁻²: C = C_rigid + V_atm·p_atm·x (p_atm in bar).
   const slope = fp.vAtmM3.value * (fp.ambientPa / 1e5);
   // Units: V_atm [m³]·p_atm [bar]·x [bar⁻²] = m³/bar = 1e-5 m³/Pa, so C [m³/Pa] = C_rigid + slope·x·1e-5.
@@ -195,7 +197,7 @@ export function fingerprintConfig(fp: FingerprintView, c: ChartColors, interacti
     },
     options: {
       animation: false, responsive: interactive, maintainAspectRatio: false,
-      scales: { x: axis('1 / p_abs² (1/bar²)', c, { min: 0 }), y: axis(`Compliance (${COMPLIANCE_UNIT.label})`, c) },
+      scales: { x: axis('1 / p_abs² (1/bar²)', c, { min: x0, max: x1 }), y: axis(`Compliance (${COMPLIANCE_UNIT.label})`, c) },
       plugins: { legend: legend(c), tooltip: { enabled: interactive } },
     },
   };

@@ -78,6 +78,7 @@ function fileCard(app: App, index: number, report: ImportReport): HTMLElement {
   return el('section', { class: 'panel file-card', 'aria-label': `Import of ${report.source}` },
     el('h3', {}, el('span', { text: file?.name ?? report.source }), el('span', { class: 'muted small', text: `${fmtBytes(report.bytes)} · ${report.rows.toLocaleString('en')} rows${report.skippedRows ? ` · ${report.skippedRows} skipped` : ''}` })),
     el('div', { class: 'hash', text: `SHA-256 ${file?.sha256 ?? ''}` }),
+    el('div', { class: 'file-top' },
     el('dl', { class: 'kv', 'data-testid': `dialect-${index}` },
       el('dt', { text: 'Delimiter' }), el('dd', { text: DELIM_NAME[d.delimiter] }),
       el('dt', { text: 'Decimal sign' }), el('dd', { text: d.decimal === '.' ? 'point (.)' : 'comma (,)' }),
@@ -91,7 +92,7 @@ function fileCard(app: App, index: number, report: ImportReport): HTMLElement {
       el('label', { class: 'field' }, el('span', { text: 'Decimal sign' }), dec),
       el('label', { class: 'field' }, el('span', { text: 'Time format' }), tf),
       el('label', { class: 'inline small', for: `skip-${index}` }, skip, 'Skip bad rows (counted)'),
-    ),
+    )),
     el('table', { 'data-testid': `columns-${index}` },
       el('thead', {}, el('tr', {}, ...['#', 'Header', 'Quantity', 'Unit', 'Factor to SI', 'Channel', 'Recognised by'].map((h) => el('th', { text: h })))),
       el('tbody', {}, ...rows),
@@ -101,6 +102,20 @@ function fileCard(app: App, index: number, report: ImportReport): HTMLElement {
     report.warnings.length ? notice('warn', `${report.warnings.length} warning(s) while reading:`) : null,
     warningsList(report.warnings),
   );
+}
+
+/** Two logs: aligned by their absolute timestamps, or by an offset the user gives. */
+function mergePanel(app: App): HTMLElement {
+  const s = app.state;
+  const offset = el('input', { type: 'number', step: 'any', value: s.mergeOffsetS === null ? '' : String(s.mergeOffsetS), placeholder: 'from timestamps', 'aria-label': 'Start of the second log on the first log time axis (s)', 'data-testid': 'merge-offset' });
+  const apply = button('Apply and re-read', () => {
+    s.mergeOffsetS = offset.value === '' ? null : Number(offset.value);
+    void app.importFiles();
+  }, 'btn small');
+  return el('section', { class: 'panel', 'aria-label': 'Merging two logs' },
+    el('h3', { text: `Two logs of one run: ${s.files.map((f) => f.name).join(' + ')}` }),
+    el('p', { class: 'small muted', text: 'They are put on the time base of the faster log (the other is interpolated, never extrapolated). Alignment uses their absolute timestamps; without them, give where the second log starts.' }),
+    el('label', { class: 'field' }, el('span', { text: "Start of the second log on the first log's time axis (s); empty = from timestamps" }), el('div', { class: 'inline' }, offset, apply)));
 }
 
 export function renderImportView(app: App, root: HTMLElement): void {
@@ -113,23 +128,24 @@ export function renderImportView(app: App, root: HTMLElement): void {
       button('Open logs…', () => void app.openLogsDialog(), 'btn primary')));
     return;
   }
+  if (s.files.length > 1) root.append(mergePanel(app));
   if (!s.recording) {
     root.append(notice('info', `Reading ${s.files.map((f) => f.name).join(', ')}… (or see the status bar for a problem)`));
     return;
   }
   const r = s.recording;
   const rate = r.sampleCount > 1 && r.durationS > 0 ? (r.sampleCount - 1) / r.durationS : Number.NaN;
+  const pair = (k: string, v: string): HTMLElement => el('span', {}, el('span', { class: 'muted small', text: `${k} ` }), el('strong', { class: 'mono', text: v }));
   root.append(el('div', { class: 'panel' },
-    el('dl', { class: 'kv', 'data-testid': 'import-summary' },
-      el('dt', { text: 'Samples' }), el('dd', { text: r.sampleCount.toLocaleString('en') }),
-      el('dt', { text: 'Duration' }), el('dd', { text: `${fmt(r.durationS, 5)} s` }),
-      el('dt', { text: 'Mean sample rate' }), el('dd', { text: `${fmt(rate, 4)} Hz` }),
-      el('dt', { text: 'Start' }), el('dd', { text: r.startEpochMs === null ? 'not in the log' : new Date(r.startEpochMs).toISOString() }),
-      el('dt', { text: 'Channels' }), el('dd', { text: r.channels.map((c) => `${c.name} (${QUANTITY_LABEL[c.quantity]}, from "${c.originalHeader}")`).join('; ') }),
-      el('dt', { text: 'Suggested setup' }), el('dd', { text: `${r.suggestedSetup} — ${r.setupReason}` }),
-    ),
+    el('div', { class: 'summary-row', 'data-testid': 'import-summary' },
+      pair('Samples', r.sampleCount.toLocaleString('en')),
+      pair('Duration', `${fmt(r.durationS, 5)} s`),
+      pair('Mean rate', `${fmt(rate, 4)} Hz`),
+      pair('Start', r.startEpochMs === null ? 'not in the log' : new Date(r.startEpochMs).toISOString()),
+      pair('Setup suggested', r.suggestedSetup),
+      button('Continue to the recording →', () => app.show('recording'), 'btn primary small')),
+    el('p', { class: 'small muted', text: `Channels: ${r.channels.map((c) => `${c.name} (${QUANTITY_LABEL[c.quantity]}, from "${c.originalHeader}")`).join('; ')}. Setup: ${r.setupReason}.` }),
     r.warnings.length ? warningsList(r.warnings) : null,
-    el('div', { class: 'inline' }, button('Continue to the recording →', () => app.show('recording'), 'btn primary')),
   ));
   r.reports.forEach((rep, i) => root.append(fileCard(app, i, rep)));
 }

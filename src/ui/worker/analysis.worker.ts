@@ -7,6 +7,7 @@ import { InputError } from '../../core/errors';
 import { createLogParser } from '../../core/import';
 import type { ImportReport } from '../../core/import/types';
 import type { Recording } from '../../core/recording/types';
+import { mergeRecordings } from '../../core/recording/merge';
 import { chooseSetup, detectSteps, driveChannel, medianOfSlice, responseChannel } from '../../core/steps';
 import type { Setup, Step } from '../../core/steps/types';
 import { fitTransient, evaluateTransient } from '../../core/fit/transient';
@@ -195,12 +196,9 @@ function handle(req: WorkerRequest): { result: unknown; transfer?: Transferable[
         before += f.bytes.length;
         return r;
       });
-      if (results.length > 1) {
-        throw new InputError('merge-unavailable', 'Merging two logs of one run is not available yet in the app', 'Open the logs one at a time, or merge them with the command line');
-      }
-      const only = results[0];
-      if (!only) throw new Error('No file to import.');
-      recording = only.recording;
+      if (!results.length) throw new Error('No file to import.');
+      // Two logs of one run go onto one time base (core/recording/merge: by absolute start times, or the offset given).
+      recording = results.length === 1 ? (results[0] as (typeof results)[number]).recording : mergeRecordings(results.map((r) => r.recording), req.mergeOffsetS !== null ? { offsetsS: [req.mergeOffsetS] } : {});
       reports = results.map((r) => r.report);
       const choice = chooseSetup(recording);
       return { result: { ...summary(recording, reports), suggestedSetup: choice.setup, setupReason: choice.reason } };
