@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { estimatePressureDriven } from '../../../src/core/circuits';
+import { estimatePressureDriven, monteCarloPropagate, parameterSetFromFit, withIndependent } from '../../../src/core/circuits';
 import { makeFit } from './fit-fixture';
 
 // Circuit and check values of physics.md §4.3: R1 = 1e13, R2 = 2e13 Pa·s/m³, C = 1e-13 m³/Pa → τ = 0.6667 s.
@@ -106,5 +106,34 @@ describe('estimatePressureDriven', () => {
     expect(exact.complianceM3PerPa!.standardError).toBe(0);
     // Derivation: C = τ·Rt/(Ru·(Rt − Ru)); ∂ln C/∂ln Ru = −1 + Ru/(Rt − Ru) = −1 + 0.5 = −0.5 → σ_C/C = 0.05
     expect(uncertain.complianceM3PerPa!.standardError / C).toBeCloseTo(0.05, 6);
+  });
+
+  it('estimatePressureDriven delta-method SE of C (inlet) agrees with a seeded Monte Carlo (JCGM 101 cross-check)', () => {
+    const qBefore = 0;
+    const qInf = DP / (R1 + R2);
+    const a = (DP * R2) / (R1 * (R1 + R2));
+    const fit = makeFit({
+      yInf: qInf,
+      yInfSe: 0.005 * qInf,
+      terms: [{ tauS: TAU, amplitude: a, tauSe: 0.01 * TAU, amplitudeSe: 0.01 * a }],
+      correlations: { 'yInf|a1': -0.4, 'a1|tau1_s': 0.3 },
+    });
+    const baseSe = 0.002 * qInf;
+    const out = estimatePressureDriven({ flowFit: fit, sensor: 'inlet', pressureBeforePa: 0, pressureAfterPa: DP, flowBefore: { value: qBefore, standardError: baseSe } });
+    const set = withIndependent(parameterSetFromFit(fit).set, 'baseline', qBefore, baseSe);
+    // C = τ·Rt/(Ru·(Rt − Ru)) with Rt = Δp/(y∞ − b), Ru = Δp/(y∞ + a − b) (§4.3 recipe)
+    const mc = monteCarloPropagate(
+      set,
+      (p) => {
+        const rt = DP / (p('yInf') - p('baseline'));
+        const ru = DP / (p('yInf') + p('a1') - p('baseline'));
+        return (p('tau1_s') * rt) / (ru * (rt - ru));
+      },
+      { samples: 40000, seed: 11 },
+    );
+    const ratio = mc.standardDeviation / out.complianceM3PerPa!.standardError;
+    expect(ratio).toBeGreaterThan(0.95);
+    expect(ratio).toBeLessThan(1.05);
+    expect(mc.median / out.complianceM3PerPa!.value).toBeCloseTo(1, 2);
   });
 });
