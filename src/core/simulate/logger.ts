@@ -75,10 +75,15 @@ export function simulateLogs(network: Network, program: Program, loggers: Logger
     });
     const t0 = timesS[0] ?? 0;
     const res = logger.timeResolutionS ?? (logger.sampleRateHz > 200 ? 1e-5 : 1e-3);
-    const decimals = Math.max(0, Math.round(-Math.log10(res)));
-    const written = timesS.map((t) => Number((t - t0).toFixed(decimals)));
-    for (let k = 1; k < written.length; k++) {
-      if (!((written[k] as number) > (written[k - 1] as number))) written[k] = Number(((written[k - 1] as number) + res).toFixed(decimals));
+    // Integer ticks divided by a power of ten give the double nearest the decimal, so the written text is short.
+    const ticksPerS = Math.round(1 / res);
+    const written = new Float64Array(timesS.length);
+    let lastTick = -Infinity;
+    for (let k = 0; k < timesS.length; k++) {
+      let tick = Math.round(((timesS[k] as number) - t0) * ticksPerS);
+      if (!(tick > lastTick)) tick = lastTick + 1;
+      lastTick = tick;
+      written[k] = tick / ticksPerS;
     }
     const recording: Recording = {
       timeS: written,

@@ -86,19 +86,21 @@ export function simulate(network: Network, program: Program, options: Simulation
   }
 
   const start = drivesAt(prog, 0);
-  let x = options.initial === 'rest' ? new Float64Array(sys.nState) : steadyState(sys, start.u0);
-  const states: Float64Array[] = new Array<Float64Array>(nOut);
+  const n = sys.nState;
+  let x: Float64Array = options.initial === 'rest' ? new Float64Array(n) : steadyState(sys, start.u0);
+  // All states in one flat array (sample-major): no per-sample allocation on long, fast logs.
+  const states = new Float64Array(nOut * n);
   const stats = { acceptedSteps: 0, rejectedSteps: 0 };
 
   // Segments: [0, b1), [b1, b2), … up to the last output time.
   const tEnd = nOut > 0 ? (times[nOut - 1] as number) : 0;
   const bounds = [0, ...prog.breakpointsS.filter((b) => b < tEnd), tEnd];
   let k = 0;
-  while (k < nOut && (times[k] as number) === 0) states[k++] = x;
+  while (k < nOut && (times[k] as number) === 0) states.set(x, n * k++);
 
   const absTol = method === 'nonlinear' ? tolerances(sys, prog, options) : new Float64Array(0);
   let h = Number.NaN;
-  const mass = new Float64Array(sys.nState);
+  const mass = new Float64Array(n);
   for (let seg = 0; seg + 1 < bounds.length; seg++) {
     const t0 = bounds[seg] as number;
     const t1 = bounds[seg + 1] as number;
@@ -113,17 +115,19 @@ export function simulate(network: Network, program: Program, options: Simulation
       massAt(sys, x, mass);
       const prop = new SegmentPropagator(sys, assembleAt(sys, mass, u0, u1));
       let s = 0;
+      let next: Float64Array = new Float64Array(n);
       for (let i = 0; i < targets.length; i++) {
         const tg = targets[i] as number;
-        x = prop.step(x, s, tg - s);
+        prop.step(x, s, tg - s, next);
+        [x, next] = [next, x];
         s = tg;
-        if (firstK + i < k) states[firstK + i] = x;
+        if (firstK + i < k) states.set(x, n * (firstK + i));
       }
     } else {
       const rhs = new SegmentRhs(sys, u0, u1);
       if (!Number.isFinite(h)) h = initialStep(rhs, x, t1 - t0);
       const res = integrateSegment(rhs, x, targets, h, { relTol: options.relTol ?? 1e-8, absTol }, stats, (i, xs) => {
-        if (firstK + i < k) states[firstK + i] = new Float64Array(xs);
+        if (firstK + i < k) states.set(xs, n * (firstK + i));
       });
       x = res.x;
       h = res.h;
@@ -178,7 +182,7 @@ function collect(
   prog: CompiledProgram,
   network: Network,
   times: Float64Array,
-  states: Float64Array[],
+  states: Float64Array,
   method: 'exact' | 'nonlinear',
   stats: { acceptedSteps: number; rejectedSteps: number },
 ): SimulationResult {
@@ -194,9 +198,15 @@ function collect(
   for (const id of sys.sourceOutput.keys()) sourceOutput[id] = series();
   for (const name of prog.names) setpoint[name] = series();
   for (const id of sys.probe.keys()) probe[id] = series();
+  const n = sys.nState;
+  const u = new Float64Array(prog.names.length);
   for (let k = 0; k < nOut; k++) {
-    const x = states[k] as Float64Array;
-    const u = drivesAt(prog, times[k] as number).u0;
+    const x = states.subarray(n * k, n * (k + 1));
+    const t = times[k] as number;
+    prog.pieces.forEach((ps, d) => {
+      const p = pieceAt(ps, t);
+      u[d] = p.v0 + p.slope * (t - p.startS);
+    });
     for (const [id, i] of sys.nodeIndex) (nodePressurePa[id] as Float64Array)[k] = x[i] as number;
     for (const [id, e] of sys.resistorFlow) (resistorFlowM3PerS[id] as Float64Array)[k] = evalAffine(e, x, u);
     for (const [id, e] of sys.sourceOutput) (sourceOutput[id] as Float64Array)[k] = evalAffine(e, x, u);
