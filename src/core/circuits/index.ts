@@ -15,3 +15,5 @@ export type { DerivedFunction } from './propagate';
 export { monteCarloPropagate } from './monte-carlo';
 export type { MonteCarloOptions, MonteCarloResult } from './monte-carlo';
 export { parseResistance } from './parse-resistance';
+export { SETUP_SCHEMATICS } from './schematics';
+export type { SchematicName, SetupSchematic } from './schematics';
