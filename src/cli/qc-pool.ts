@@ -7,7 +7,7 @@ import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import { runQcJob, type QcJob, type QcJobResult } from './qc-job';
+import { runQcJob, type QcJob, type QcJobResult } from '../io/qc-job';
 
 /** The bundled worker next to the running bundle, or null when running from source. */
 export function bundledWorkerUrl(): URL | null {

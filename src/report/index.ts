@@ -6,3 +6,4 @@ export { renderChipReportHtml } from './chip-report';
 export { renderLotReportHtml } from './lot-report';
 export { chipChecksCsv, chipReportJson, historyCsv } from './exports';
 export { renderXyChart, renderBarChart, niceTicks } from './svg';
+export { chipReportInput, type AnalysedChip } from './chip-input';

@@ -9,16 +9,16 @@ import { parseChipDescription } from '../../core/chip/parse';
 import { InputError } from '../../core/errors';
 import { formatNumber } from '../../core/qc/format';
 import { checkChipIdSource, parseQcSpec } from '../../core/qc/spec';
-import type { ChipEvaluation, QcRecord, QcSpec } from '../../core/qc/types';
+import type { ChipEvaluation, QcSpec } from '../../core/qc/types';
 import { evaluateChip, VERDICT_RULE } from '../../core/qc/verdict';
 import { latestPerChip } from '../../core/qc/lot-summary';
 import { PRESSURE_SAFETY_CAUTION } from '../../core/safety';
-import { lotStatistics, openQcStore, queryHistory, recordChip, DEFAULT_QC_STORE, type QcStore, type RecordOutcome } from '../../io/qc-store';
+import { lotStatistics, openQcStore, queryHistory, DEFAULT_QC_STORE, type RecordOutcome } from '../../io/qc-store';
+import { signOffChip } from '../../io/qc-signoff';
 import { safeFileName, writeChipReports, writeLotReport, writeSummary } from '../../io/qc-reports';
 import { sha256Hex } from '../../io/sha256';
-import type { ChipReportInput } from '../../report/types';
 import { EXIT, UsageError, type CliIo, type Command } from '../io';
-import type { QcJob, QcJobResult, QcJobValue } from '../qc-job';
+import type { QcJob, QcJobResult, QcJobValue as QcJobSuccess } from '../../io/qc-job';
 import { runQcPool } from '../qc-pool';
 import { VERSION } from '../version';
 
@@ -150,30 +150,11 @@ interface ChipOutcome {
   displayPath: string;
   chipId: string | null;
   evaluation: ChipEvaluation | null;
-  value: QcJobValue | null;
+  value: QcJobSuccess | null;
   record: RecordOutcome | null;
   reports: string[];
   error: string | null;
   inputError: boolean;
-}
-
-/** Builds the report input of one analysed chip. */
-export function chipReportInput(spec: QcSpec, value: QcJobValue, evaluation: ChipEvaluation, trace: ChipReportInput['trace']): ChipReportInput {
-  const q = value.measurement.quantities;
-  const breakdown = value.nominal ? { parts: value.nominal.parts, nominalTotalM3PerPa: value.nominal.totalM3PerPa, fitted: q.compliance ?? null } : null;
-  return {
-    spec,
-    measurement: value.measurement,
-    evaluation,
-    trace,
-    steps: value.steps,
-    breakdown,
-    trappedAir: q.trapped_air ? { volumeM3: q.trapped_air, absolutePressurePa: null, note: value.trappedAirNote } : null,
-  };
-}
-
-function recordedTrace(store: QcStore, chipId: string, id: number): QcRecord | undefined {
-  return queryHistory(store, { chip: chipId }).find((r) => r.id === id);
 }
 
 function summaryLine(o: ChipOutcome): string {
@@ -227,7 +208,7 @@ export const qcCommand: Command = {
     if (logs.length === 0) throw new InputError('no-logs', `No log files (${LOG_EXTENSIONS.join(', ')}) were found`, 'Give a folder with logs or name the log files', { file: a.inputs.join(', ') });
     const chipIdFrom = a.chipIdFrom ?? spec.chipIdFrom;
     const chip = readChipDescription(a, spec, io.cwd);
-    const jobs: QcJob[] = logs.map((l) => ({ path: l.path, displayPath: l.display, chipIdFrom, drive: spec.test.drive, chip: chip ? { text: chip.text, displayPath: chip.displayPath } : null }));
+    const jobs: QcJob[] = logs.map((l) => ({ path: l.path, displayPath: l.display, chipIdFrom, drive: spec.test.drive, chip: chip ? { text: chip.text, displayPath: chip.displayPath } : null, softwareVersion: VERSION }));
     const settings = { chip_id_from: chipIdFrom, drive: spec.test.drive, analysis: 'defaults', chip_description_sha256: chip?.sha256 ?? null };
     const chipInput = chip ? [{ path: chip.displayPath, sha256: chip.sha256 }] : [];
     const reportDir = resolve(io.cwd, a.reportDir);
@@ -247,28 +228,20 @@ export const qcCommand: Command = {
       const finishChip = (result: QcJobResult): ChipOutcome => {
         if (!result.ok) return { displayPath: result.displayPath, chipId: null, evaluation: null, value: null, record: null, reports: [], error: result.message, inputError: result.inputError };
         const v = result.value;
-        const evaluation = evaluateChip(spec, v.measurement);
-        const recordedAt = new Date().toISOString();
-        let record: RecordOutcome;
+        let signed;
         try {
-          record = recordChip(store, {
-            chipId: v.chipId, lot: a.lot, operator: a.operator, recordedAt, specText, specSha256, specDesign: spec.design.name,
-            inputs: [{ path: v.displayPath, sha256: v.sha256 }, ...chipInput], softwareVersion: VERSION, settings, measurement: v.measurement, evaluation,
+          signed = signOffChip(store, {
+            spec, specText, specSha256, chipId: v.chipId, chip: v, inputs: [{ path: v.displayPath, sha256: v.sha256 }, ...chipInput],
+            lot: a.lot, operator: a.operator, softwareVersion: VERSION, settings, recordedAt: new Date().toISOString(),
           });
         } catch (err) {
-          return { displayPath: v.displayPath, chipId: v.chipId, evaluation, value: v, record: null, reports: [], error: `not recorded: ${err instanceof Error ? err.message : String(err)}`, inputError: false };
+          return { displayPath: v.displayPath, chipId: v.chipId, evaluation: evaluateChip(spec, v.measurement), value: v, record: null, reports: [], error: `not recorded: ${err instanceof Error ? err.message : String(err)}`, inputError: false };
         }
-        const stored = record.status === 'already-recorded' ? recordedTrace(store, v.chipId, record.id) : undefined;
         let stem = safeFileName(v.chipId);
         for (let k = 2; stems.has(stem); k++) stem = `${safeFileName(v.chipId)}-${k}`;
         stems.add(stem);
-        const trace: ChipReportInput['trace'] = {
-          chipId: v.chipId, lot: a.lot, operator: stored?.operator ?? a.operator, recordedAt: stored?.recordedAt ?? recordedAt,
-          specDesign: spec.design.name, specSha256, inputs: [{ path: v.displayPath, sha256: v.sha256 }, ...chipInput], softwareVersion: stored?.softwareVersion ?? VERSION,
-          settings, record: { status: record.status, id: record.id, store: dbPath },
-        };
-        const reports = writeChipReports(reportDir, stem, chipReportInput(spec, v, evaluation, trace));
-        return { displayPath: v.displayPath, chipId: v.chipId, evaluation, value: v, record, reports, error: null, inputError: false };
+        const reports = writeChipReports(reportDir, stem, signed.report);
+        return { displayPath: v.displayPath, chipId: v.chipId, evaluation: signed.evaluation, value: v, record: signed.record, reports, error: null, inputError: false };
       };
       const { workers } = await runQcPool(jobs, { maxWorkers: a.jobs ?? undefined, onResult: handle });
       const recordIds = new Set(outcomes.flatMap((o) => (o.record ? [o.record.id] : [])));

@@ -1,7 +1,8 @@
 /**
- * One QC job: read a log, hash it, import, analyse, derive the chip ID and the chip measurement,
- * and the step plots for the report. Runs in a worker thread (qc-worker.ts) or in-process.
- * Results are plain data (structured-clone safe); errors come back as data too.
+ * One QC job: read a log, hash it, import, analyse (with the physics stage), derive the chip ID, the
+ * chip measurement and the step plots for the report. Runs in a worker thread (src/cli/qc-worker.ts),
+ * in-process in the CLI, or in the desktop app's main process. Results are plain data
+ * (structured-clone safe); errors come back as data too.
  */
 import { readFileSync } from 'node:fs';
 import { analyzeRecording } from '../core/analyze/analyze';
@@ -13,9 +14,8 @@ import { chipIdFor } from '../core/qc/chip-id';
 import { measurementFromAnalysis, nominalComplianceParts } from '../core/qc/from-analysis';
 import { stepCurves, type StepCurve } from '../core/qc/step-curves';
 import type { ChipMeasurement } from '../core/qc/types';
-import { readLogFile } from '../io/read-log';
-import { sha256Hex } from '../io/sha256';
-import { VERSION } from './version';
+import { readLogFile } from './read-log';
+import { sha256Hex } from './sha256';
 
 export interface QcJob {
   /** Absolute path to read. */
@@ -26,6 +26,8 @@ export interface QcJob {
   drive: 'flow-driven' | 'pressure-driven' | null;
   /** Chip description (text and the name it is shown by) for the nominal prediction and trapped air. */
   chip: { text: string; displayPath: string } | null;
+  /** Software version recorded in the analysis. */
+  softwareVersion: string;
 }
 
 export interface QcJobValue {
@@ -56,7 +58,7 @@ export async function runQcJob(job: QcJob): Promise<QcJobResult> {
     const chipId = chipIdFor(job.chipIdFrom, job.displayPath, recording.metadata);
     const base = analyzeRecording(
       recording,
-      { setup: job.drive ?? undefined, software: { name: 'lagbench', version: VERSION } },
+      { setup: job.drive ?? undefined, software: { name: 'lagbench', version: job.softwareVersion } },
       defaultFitter,
     );
     const chip = job.chip ? parseChipDescription(job.chip.text, job.chip.displayPath) : undefined;
