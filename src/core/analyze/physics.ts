@@ -17,6 +17,7 @@ import type { Recording } from '../recording/types';
 import {
   complianceFromFlowBalance,
   estimateFlowDriven,
+  estimateLadder,
   estimatePressureDriven,
 } from '../circuits';
 import type { CircuitEstimate, FlowBalanceEstimate, LevelEstimate, PhysicalEstimate, PressureDrivenEstimate } from '../circuits';
@@ -229,6 +230,18 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
       const pressureBefore = response ? preStepLevel(ctx.recording, response, ctx.previousOnsetS, step.start_s) : undefined;
       estimate = estimateFlowDriven({ pressureFit: fit, flowBeforeM3PerS: before, flowAfterM3PerS: after, ...(pressureBefore ? { pressureBefore } : {}) });
       extra.baseline = pressureBefore ? 'mean pressure at the end of the previous level' : "the fit's start level y∞ + Σaᵢ";
+      if (fit.terms.length === 2) {
+        // Two τ's at the pump's node: also read them as a two-node ladder (§4.4), beside the 1-node result.
+        const ladder = estimateLadder({ pressureFit: fit, drive: { kind: 'flow', flowBeforeM3PerS: before, flowAfterM3PerS: after }, ...(pressureBefore ? { pressureBefore } : {}) });
+        extra.ladder = {
+          node1_compliance_m3_per_Pa: estJson(ladder.node1ComplianceM3PerPa),
+          node2_compliance_m3_per_Pa: estJson(ladder.node2ComplianceM3PerPa),
+          resistance_between_nodes_Pa_s_per_m3: estJson(ladder.resistanceBetweenNodesPaSPerM3),
+          outlet_resistance_Pa_s_per_m3: estJson(ladder.outletResistancePaSPerM3),
+          consistent: !ladder.warnings.some((w) => w.code === 'ladder-inconsistent'),
+          note: 'The 2-term fit read as pump → C1 → R_a → C2 → R_b → outlet (docs/setups.md §4); meaningful only if the set-up has two compliant nodes.',
+        };
+      }
       nodeBeforePa = pressureBefore?.value ?? fit.yInf.value + fit.terms.reduce((a, t) => a + t.amplitude.value, 0);
       nodeAfterPa = fit.yInf.value;
       if (response) {

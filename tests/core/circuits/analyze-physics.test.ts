@@ -142,6 +142,39 @@ describe('addPhysics on analyzeRecording results', () => {
     }
   });
 
+  it('addPhysics reads a 2-term flow-driven step as a two-node ladder (§4.4, flow source 2.618/0.382 RC)', () => {
+    const [R, C, q0] = [1e13, 1e-13, 1e-10];
+    // node-1 response of the equal-element flow ladder (transfer function in ladder.ts, checked in ladder.test.ts)
+    const tS = (2 / (3 - Math.sqrt(5))) * R * C;
+    const tF = (2 / (3 + Math.sqrt(5))) * R * C;
+    const tz = (R * C) / 2;
+    const K = 2 * R * q0;
+    const aS = (-K * (tS - tz)) / (tS - tF);
+    const aF = (-K * (tz - tF)) / (tS - tF);
+    const rate = 100;
+    const n = 40 * rate;
+    const rng = createRng(23);
+    const t = new Float64Array(n);
+    const qs = new Float64Array(n);
+    const p = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      const ti = i / rate;
+      t[i] = ti;
+      qs[i] = ti >= 10 ? q0 : 0;
+      const u = ti - 10;
+      p[i] = (u >= 0 ? K + aS * Math.exp(-u / tS) + aF * Math.exp(-u / tF) : 0) + 2 * rng.normal();
+    }
+    const rec = recording(t, [channel('flow_setpoint', 'flow_setpoint', qs), channel('pressure', 'pressure', p)]);
+    const out = addPhysics(analyzeRecording(rec, { fit: { terms: 2 } }, defaultFitter), rec, { ambientPressurePa: ATM });
+    expect(out.steps).toHaveLength(1);
+    const ladder = out.steps[0]!.physics.ladder as Record<string, { value: number; ci95: [number, number] }> & { consistent: boolean };
+    expect(ladder.consistent).toBe(true);
+    for (const [key, truth] of [['node1_compliance_m3_per_Pa', C], ['node2_compliance_m3_per_Pa', C], ['resistance_between_nodes_Pa_s_per_m3', R], ['outlet_resistance_Pa_s_per_m3', R]] as const) {
+      expect(ladder[key]!.ci95[0]).toBeLessThan(truth);
+      expect(ladder[key]!.ci95[1]).toBeGreaterThan(truth);
+    }
+  });
+
   /** Repeated 0 ↔ Q steps, each settled, with C_k per step (piecewise closed form of §4.2). */
   function repeatedLog(cOfStep: (k: number) => number, seed: number): Recording {
     const R = 2e13;
