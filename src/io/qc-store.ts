@@ -8,6 +8,7 @@
  * - Immutable: triggers RAISE(ABORT) on UPDATE or DELETE of any record table. A re-test is a new record.
  */
 import Database from 'better-sqlite3';
+import { InputError } from '../core/errors';
 import type { ChipEvaluation, ChipMeasurement, QcRecord, QcQuantity, MeasuredValue, CheckResult } from '../core/qc/types';
 import { QC_SI_UNIT } from '../core/qc/units';
 import { computeLotStatistics, controlCharts, latestPerChip, type ControlCharts, type LotStatistics } from '../core/qc/lot-summary';
@@ -89,17 +90,27 @@ export interface QcStore {
   close: () => void;
 }
 
-/** Opens (creating if needed) the store at `path` (':memory:' for tests). */
+/**
+ * Opens (creating if needed) the store at `path` (':memory:' for tests). A file that is not a
+ * Lagbench record store, or one of another schema version, is an {@link InputError}.
+ */
 export function openQcStore(path: string): QcStore {
-  const db = new Database(path);
-  db.pragma('foreign_keys = ON');
-  db.pragma('synchronous = FULL');
-  db.exec(SCHEMA);
+  let db: Database.Database;
+  try {
+    db = new Database(path);
+    db.pragma('foreign_keys = ON');
+    db.pragma('synchronous = FULL');
+    // REPLACE deletes the old row; with recursive triggers that deletion fires the DELETE trigger too.
+    db.pragma('recursive_triggers = ON');
+    db.exec(SCHEMA);
+  } catch (err) {
+    throw new InputError('qc-store-unusable', `The QC record store cannot be opened (${err instanceof Error ? err.message : String(err)})`, 'Check that --db names a Lagbench record store (or a new file) in a writable folder', { file: path });
+  }
   const version = db.prepare('SELECT value FROM qc_meta WHERE key = ?').get('schema_version') as { value: string } | undefined;
   if (!version) db.prepare('INSERT INTO qc_meta(key, value) VALUES (?, ?)').run('schema_version', SCHEMA_VERSION);
   else if (version.value !== SCHEMA_VERSION) {
     db.close();
-    throw new Error(`${path}: record store schema version ${version.value} is not supported by this Lagbench (expects ${SCHEMA_VERSION})`);
+    throw new InputError('qc-store-version', `The record store has schema version ${version.value}; this Lagbench reads version ${SCHEMA_VERSION}`, 'Use the Lagbench version that wrote it, or start a new store with --db', { file: path });
   }
   return { path, db, close: () => db.close() };
 }

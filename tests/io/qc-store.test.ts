@@ -1,5 +1,5 @@
 import { afterEach, describe, expect, it } from 'vitest';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { lotStatistics, openQcStore, queryHistory, recordChip, type QcStore } from '../../src/io/qc-store';
@@ -63,6 +63,8 @@ describe('recordChip / queryHistory', () => {
     expect(() => s.db.prepare('DELETE FROM qc_input').run()).toThrow(/immutable/);
     expect(() => s.db.prepare('UPDATE qc_quantity SET value = 0').run()).toThrow(/immutable/);
     expect(() => s.db.prepare('DELETE FROM qc_spec').run()).toThrow(/immutable/);
+    // REPLACE deletes the conflicting row first: the DELETE trigger must stop it too.
+    expect(() => s.db.prepare("INSERT OR REPLACE INTO qc_result SELECT record_id, ord, check_name, label, value, ci_lo, ci_hi, lower_limit, upper_limit, unit, 'pass', reason FROM qc_result").run()).toThrow(/immutable/);
     expect(queryHistory(s)[0]?.verdict).toBe('fail');
   });
 
@@ -109,6 +111,16 @@ describe('recordChip / queryHistory', () => {
     expect(queryHistory(s, { lot: 'A' }).map((r) => r.chipId)).toEqual(['A1', 'A2']);
     expect(queryHistory(s, { chip: 'B1' }).map((r) => r.lot)).toEqual(['B']);
     expect(queryHistory(s, { since: '2026-11-15T00:00:00.000Z' }).map((r) => r.chipId)).toEqual(['A2', 'B1']);
+  });
+});
+
+describe('openQcStore', () => {
+  it('openQcStore(a file that is not a database) throws a located InputError', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'qcstore-'));
+    dirs.push(dir);
+    const file = join(dir, 'notes.txt');
+    writeFileSync(file, 'this is not sqlite '.repeat(100));
+    expect(() => openQcStore(file)).toThrow(/cannot be opened/);
   });
 });
 
