@@ -51,7 +51,8 @@ export async function readLogFile(path: string, options: ImportOptions = {}, onP
   try {
     const buffer = Buffer.allocUnsafe(CHUNK_BYTES);
     let decoder: TextDecoder | null = null;
-    let allAscii = true;
+    let encoding: 'utf-8' | 'utf-16le' | 'utf-16be' = 'utf-8';
+    let previousEndedAscii = true;
     let done = 0;
     for (;;) {
       let n: number;
@@ -62,15 +63,18 @@ export async function readLogFile(path: string, options: ImportOptions = {}, onP
       }
       if (n === 0) break;
       const bytes = buffer.subarray(0, n);
-      if (decoder === null && allAscii && isAscii(bytes)) {
-        // pure ASCII reads the same in UTF-8 and Latin-1, and Latin-1 decoding is a plain copy (≈ 10× faster)
+      if (done === 0) encoding = encodingOf(bytes);
+      // Pure ASCII reads the same in UTF-8 and Latin-1, and Latin-1 decoding is a plain copy (several times
+      // faster). Allowed whenever the decoder holds no partial character (the previous chunk ended in ASCII),
+      // so a µ in the header does not slow down the whole file.
+      if (encoding === 'utf-8' && previousEndedAscii && isAscii(bytes)) {
         parser.push(bytes.toString('latin1'));
       } else {
-        allAscii = false;
         // ignoreBOM keeps a BOM in the text, so that the importer can report it (and strips it itself)
-        decoder ??= new TextDecoder(done === 0 ? encodingOf(bytes) : 'utf-8', { ignoreBOM: true });
+        decoder ??= new TextDecoder(encoding, { ignoreBOM: true });
         parser.push(decoder.decode(bytes, { stream: true }));
       }
+      previousEndedAscii = (bytes[n - 1] as number) < 0x80;
       done += n;
       onProgress?.(done, size);
     }
