@@ -45,6 +45,7 @@ Examples:
   lagbench analyze sample-logs/syringe-pump-semicolon.csv --terms 1 --json --out pump.json
   lagbench analyze sample-logs/hydrostatic-head-spaces.txt --robust huber --dead-time
   lagbench analyze sample-logs/pressure-logger-iso.csv --setup flow-driven --min-dwell 3
+  lagbench analyze sample-logs/pressure-logger-iso.csv sample-logs/flow-logger-iso.tsv   (two loggers, merged)
   lagbench analyze pressure-only.csv --steps pump-program.csv   (rows: time_s,flow_setpoint[uL/min])
 
 Exit codes: 0 success, 2 bad input or usage (message names the file, line and column).
