@@ -54,6 +54,15 @@ export function niceTicks(lo: number, hi: number, target = 5): number[] {
 
 const n2 = (x: number): string => x.toFixed(1);
 
+/** Significant digits that keep neighbouring tick labels distinct (at least 3). */
+export function tickDigits(ticks: readonly number[]): number {
+  if (ticks.length < 2) return 3;
+  const step = Math.abs((ticks[1] as number) - (ticks[0] as number));
+  const big = Math.max(...ticks.map((t) => Math.abs(t)));
+  if (!(step > 0) || !(big > 0)) return 3;
+  return Math.min(12, Math.max(3, Math.floor(Math.log10(big)) - Math.floor(Math.log10(step)) + 1));
+}
+
 /** Renders an x–y chart as an inline `<svg>` element. */
 export function renderXyChart(c: XyChart): string {
   const W = c.width ?? 640;
@@ -67,6 +76,8 @@ export function renderXyChart(c: XyChart): string {
     return `${head}${title}<text x="${W / 2}" y="${H / 2}" text-anchor="middle">no data</text></svg>`;
   }
   let [x0, x1] = [Math.min(...xs), Math.max(...xs)];
+  // Categories sit at integer positions: half a slot of room on each side keeps the end points visible.
+  if (c.xCategories) [x0, x1] = [-0.5, Math.max(x1, c.xCategories.length - 1) + 0.5];
   let [y0, y1] = [Math.min(...ys), Math.max(...ys)];
   if (x0 === x1) [x0, x1] = [x0 - 1, x1 + 1];
   if (y0 === y1) [y0, y1] = [y0 - (Math.abs(y0) * 0.1 || 1), y1 + (Math.abs(y1) * 0.1 || 1)];
@@ -77,9 +88,11 @@ export function renderXyChart(c: XyChart): string {
   const py = (y: number): number => H - m.b - ((y - y0) / (y1 - y0)) * (H - m.t - m.b);
   const parts: string[] = [head, title];
   parts.push(`<rect x="${m.l}" y="${m.t}" width="${W - m.l - m.r}" height="${H - m.t - m.b}" class="plot-area"/>`);
-  for (const t of niceTicks(y0, y1)) {
+  const yTicks = niceTicks(y0, y1);
+  const yDigits = tickDigits(yTicks);
+  for (const t of yTicks) {
     parts.push(`<line x1="${m.l}" x2="${W - m.r}" y1="${n2(py(t))}" y2="${n2(py(t))}" class="grid"/>`);
-    parts.push(`<text x="${m.l - 4}" y="${n2(py(t) + 4)}" text-anchor="end" class="tick">${escapeHtml(formatNumber(t, 3))}</text>`);
+    parts.push(`<text x="${m.l - 4}" y="${n2(py(t) + 4)}" text-anchor="end" class="tick">${escapeHtml(formatNumber(t, yDigits))}</text>`);
   }
   if (c.xCategories) {
     const every = Math.max(1, Math.ceil(c.xCategories.length / 12));

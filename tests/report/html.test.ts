@@ -97,3 +97,14 @@ describe('renderLotReportHtml', () => {
     expect(html).toContain(escapeHtml(PRESSURE_SAFETY_CAUTION));
   });
 });
+
+describe('chart ticks', () => {
+  it('niceTicks uses 1-2-5 steps and tickDigits keeps neighbouring labels distinct (common practice, no source)', async () => {
+    const { niceTicks, tickDigits } = await import('../../src/report/svg');
+    const { formatNumber } = await import('../../src/core/qc/format');
+    expect(niceTicks(0, 10)).toEqual([0, 2, 4, 6, 8, 10]);
+    const t = niceTicks(2.9866e13, 2.9912e13);
+    const labels = t.map((x) => formatNumber(x, tickDigits(t)));
+    expect(new Set(labels).size).toBe(labels.length);
+  });
+});
