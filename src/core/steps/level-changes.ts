@@ -14,8 +14,9 @@
  *    - abrupt (10→90 % within the smoothing width + 2 samples): a step; onset = first sample at or
  *      beyond 50 % of the change, i.e. the first sample at the new level for a setpoint;
  *    - gradual with (t90 − t50)/(t50 − t10) ≥ 1.5: a settling curve, i.e. a step seen through the
- *      system (first order gives ln(10/5)/ln(5/0.9·…) = 2.74, two equal lags ≈ 1.9 — derivation from
- *      physics.md §4.1/§4.4); onset = last sample still within noise of the old level, plus one;
+ *      system (first order, physics.md §4.1: t_x = −τ·ln(1 − x), so the ratio is ln 5 / ln 1.8 = 2.74;
+ *      two equal lags, 1 − (1 + t/τ)·e^{−t/τ}: 1.93; three equal lags: 1.68 — derivations); onset =
+ *      last sample still within noise of the old level, plus one;
  *    - otherwise (a straight line gives 1.0): a ramp, reported and never fitted;
  * 6. both levels must hold for the dwell: a step closer than the dwell to the previous or next change
  *    (or to the start or end) is dropped; the reported levels are the medians of the dwell right before

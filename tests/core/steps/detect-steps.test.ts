@@ -85,6 +85,18 @@ describe('detectSteps', () => {
     expect(d.steps.map((s) => s.direction)).toEqual(['up', 'up', 'down', 'up']);
   });
 
+  it('detectSteps(response through two equal lags, S-shaped start) still reports steps, not ramps', () => {
+    // Two equal lags: (t90 − t50)/(t50 − t10) = 1.93 ≥ 1.5 (derivation in level-changes.ts).
+    const rec = syntheticLog({ ...base, includeDrive: false, tauS: 1.5, secondTauS: 1.5, seed: 21 });
+    const d = detectSteps(rec);
+    expect(d.ramps).toEqual([]);
+    expect(d.steps).toHaveLength(4);
+    for (const [i, s] of d.steps.entries()) {
+      expect(s.onsetS).toBeGreaterThanOrEqual(program[i + 1]!.timeS);
+      expect(s.onsetS).toBeLessThan(program[i + 1]!.timeS + 1.5);
+    }
+  });
+
   it('detectSteps(response only, no steps) reports none despite drift and spikes', () => {
     const rec = syntheticLog({
       ...base,

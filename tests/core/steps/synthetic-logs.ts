@@ -44,6 +44,8 @@ export interface SyntheticLogSpec {
   /** Response = gain · drive at steady state (e.g. R for flow-driven: p = Q·R). */
   gain: number;
   tauS: number;
+  /** A second, equal-or-different lag in series (an S-shaped start, physics.md §4.4); none when absent. */
+  secondTauS?: number;
   /** Noise σ of the response and of the measured drive, SI. */
   responseNoise: number;
   driveNoise?: number;
@@ -77,17 +79,22 @@ export function syntheticLog(spec: SyntheticLogSpec): Recording {
   const noise = seededNormal(spec.seed);
   const spikes = seededUniform(spec.seed + 1);
   let y = spec.gain * driveAt(spec, 0);
+  let y2 = y;
   const decay = Math.exp(-dt / spec.tauS);
+  const decay2 = spec.secondTauS ? Math.exp(-dt / spec.secondTauS) : 0;
   for (let i = 0; i < n; i++) {
     const t = i * dt;
     timeS[i] = t;
     const d = driveAt(spec, t);
     if (i > 0) {
       // Exact discretisation of dy/dt = (gain·d − y)/τ with d held over the sample interval (§4.1 closed form).
+      const yPrev = y;
       y = spec.gain * d + (y - spec.gain * d) * decay;
+      // Second lag driven by the first one's output (held over the interval: first-order-hold accuracy is not needed here).
+      if (spec.secondTauS) y2 = yPrev + (y2 - yPrev) * decay2;
     }
     drive[i] = d + (spec.driveNoise ? spec.driveNoise * noise() : 0);
-    let r = y + spec.responseNoise * noise() + (spec.responseDriftPerS ?? 0) * t;
+    let r = (spec.secondTauS ? y2 : y) + spec.responseNoise * noise() + (spec.responseDriftPerS ?? 0) * t;
     if (spec.spikeFraction && spikes() < spec.spikeFraction) r += (spikes() < 0.5 ? -1 : 1) * (spec.spikeSize ?? 0);
     response[i] = r;
   }
