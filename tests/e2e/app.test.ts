@@ -117,7 +117,24 @@ describe.skipIf(!haveBrowser)('desktop renderer in Chromium', () => {
     await shot('03-step-fit');
   });
 
+  it('the wheel zooms the recording chart and Reset zoom restores it', async () => {
+    await page.click('#nav-recording');
+    const canvas = page.locator('#view-recording [data-testid="recording-chart"]');
+    const box = await canvas.boundingBox();
+    if (!box) throw new Error('no chart');
+    await page.mouse.move(box.x + box.width * 0.5, box.y + box.height * 0.6);
+    for (let k = 0; k < 4; k++) await page.mouse.wheel(0, -200);
+    await page.waitForFunction(() => {
+      const c = document.querySelector<HTMLCanvasElement>('[data-testid="recording-chart"]');
+      return c !== null && Number(c.dataset.xMax) - Number(c.dataset.xMin) < 300;
+    });
+    await page.click('[data-testid="reset-zoom"]');
+    const span = await page.$eval('[data-testid="recording-chart"]', (c) => Number((c as HTMLCanvasElement).dataset.xMax) - Number((c as HTMLCanvasElement).dataset.xMin));
+    expect(span).toBeCloseTo(390, 6);
+  });
+
   it('moving a step with the keyboard refits it', async () => {
+    await page.click('#nav-steps');
     await page.click('[data-testid="step-tab-1"]');
     const tauBefore = Number(await page.getAttribute('[data-testid="tau-value-0"]', 'data-si'));
     await page.click('#nav-recording');
@@ -266,6 +283,37 @@ describe.skipIf(!haveBrowser)('desktop renderer in Chromium', () => {
     expect(summary).toContain('Pressure [kPa]');
     expect(summary).toContain('Flow [nL/s]');
     await shot('09-two-logs-import');
+  });
+
+  it('a large log shows the progress bar while it is read', async () => {
+    // 600 000 rows (≈ 20 MB) of the same run repeated: several 4 MB chunks, so progress is reported.
+    const body = run.text.split('\n').slice(3).filter(Boolean);
+    const rows: string[] = [];
+    for (let rep = 0; rows.length < 600_000; rep++) for (const line of body) rows.push(line.replace(/^[^;]+/, (t) => (Number(t) + rep * 390.1).toFixed(2)));
+    writeFileSync(join(work, 'long-run.csv'), `time [s];flow setpoint [uL/min];pressure [mbar]\n${rows.join('\n')}\n`);
+    await page.evaluate(() => {
+      const w = window as unknown as { sawProgress: string[] };
+      w.sawProgress = [];
+      new MutationObserver(() => {
+        const p = document.getElementById('progress');
+        if (p && !p.hidden) w.sawProgress.push(document.getElementById('progress-label')?.textContent ?? '');
+      }).observe(document.getElementById('progress') as HTMLElement, { attributes: true, subtree: true, childList: true, characterData: true });
+    });
+    await page.setInputFiles('#file-input-logs', join(work, 'long-run.csv'));
+    await page.waitForFunction((n) => (document.getElementById('file-summary')?.textContent ?? '').includes(`${n} samples`), rows.length.toLocaleString('en'), { timeout: 120_000 });
+    const seen = await page.evaluate(() => (window as unknown as { sawProgress: string[] }).sawProgress);
+    expect(seen.some((l) => l.startsWith('Reading long-run.csv'))).toBe(true);
+    await page.click('#nav-recording');
+    await page.waitForSelector('[data-testid="recording-chart"]');
+    await shot('10-large-log');
+  });
+
+  it('the exported report renders on its own', async () => {
+    const viewer = await context.newPage();
+    await viewer.setContent(readFileSync(join(SHOTS, '..', 'report.html'), 'utf8'));
+    await viewer.screenshot({ path: join(SHOTS, '11-report-file.png'), fullPage: false });
+    expect(await viewer.$$eval('img', (imgs) => imgs.every((i) => (i as HTMLImageElement).naturalWidth > 0))).toBe(true);
+    await viewer.close();
   });
 
   it('produced no page errors and no remote requests', () => {

@@ -134,6 +134,8 @@ export function renderRecordingView(app: App, root: HTMLElement): void {
     const x = c.scales.x;
     if (!x) return;
     zoom = { min: x.min, max: x.max };
+    canvas.dataset.xMin = String(x.min);
+    canvas.dataset.xMax = String(x.max);
     void app.worker.request('series', { fromS: x.min, toS: x.max, maxPoints: 4000 }).then((fresh) => {
       zoomedSeries = fresh;
       const next = recordingConfig(fresh, rec.channels, onsets, s.selectedStep, pageColors(), true);
@@ -149,6 +151,8 @@ export function renderRecordingView(app: App, root: HTMLElement): void {
   zoomOpts.pan = { ...zoomOpts.pan, onPanComplete: ({ chart }) => refine(chart as Chart) };
   const chart = new Chart(canvas, cfg);
   app.keepCharts('recording', [chart]);
+  canvas.dataset.xMin = String(chart.scales.x?.min ?? 0);
+  canvas.dataset.xMax = String(chart.scales.x?.max ?? dur);
 
   // Dragging a marker moves its step; a double-click adds one.
   let dragging: number | null = null;
