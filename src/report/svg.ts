@@ -123,7 +123,7 @@ export function renderXyChart(c: XyChart): string {
     if (s.kind === 'line' && pts.length > 1) {
       parts.push(`<polyline fill="none" stroke="${escapeHtml(s.colour)}" stroke-width="1.6" points="${pts.map(([a, b]) => `${n2(a)},${n2(b)}`).join(' ')}"/>`);
     } else {
-      const r = pts.length > 400 ? 1.2 : 2.2;
+      const r = pts.length > 400 ? 1.2 : pts.length > 60 ? 2.2 : 3.5;
       parts.push(`<g fill="${escapeHtml(s.colour)}">${pts.map(([a, b]) => `<circle cx="${n2(a)}" cy="${n2(b)}" r="${r}"/>`).join('')}</g>`);
     }
     for (const k of s.highlight ?? []) {
