@@ -76,6 +76,8 @@ export class BodyParser {
   private readonly decCode: number;
   private readonly numericTime: boolean;
   private readonly timeIdx: number;
+  /** Index of the time field when it is text (ISO, hh:mm:ss), else -1. */
+  private readonly textTimeField: number;
   private readonly chanIndex: Int32Array;
   private readonly chanFactor: Float64Array;
   private carry = '';
@@ -111,6 +113,7 @@ export class BodyParser {
     this.decCode = cfg.decimal.charCodeAt(0);
     this.numericTime = cfg.timeFormat === 'seconds' || cfg.timeFormat === 'milliseconds' || cfg.timeFormat === 'minutes' || cfg.timeFormat === 'hours';
     this.timeIdx = cfg.timeIndex ?? -1;
+    this.textTimeField = this.numericTime ? -1 : this.timeIdx;
     // A factor 10^k (mbar → Pa, kPa → Pa, ms → s) is applied by shifting the decimal exponent while reading,
     // so that '0.315068' kPa becomes exactly the double nearest 315.068 Pa (multiplying by 1000 would not).
     this.shift = new Int32Array(cfg.fieldCount);
@@ -180,6 +183,8 @@ export class BodyParser {
     const delim = this.delimCode;
     const ws = this.whitespace;
     const dec = this.decCode;
+    const shift = this.shift;
+    const textTimeField = this.textTimeField;
     let i = start;
     if (ws) while (i < end && (s.charCodeAt(i) === SPACE || s.charCodeAt(i) === TAB)) i++;
     let f = 0;
@@ -192,7 +197,7 @@ export class BodyParser {
         }
         return true;
       }
-      if (f === this.timeIdx && !this.numericTime) {
+      if (f === textTimeField) {
         let j = i;
         if (ws) while (j < end && s.charCodeAt(j) !== SPACE && s.charCodeAt(j) !== TAB) j++;
         else {
@@ -264,7 +269,7 @@ export class BodyParser {
           exp10 += eneg ? -e : e;
         }
         let v: number;
-        const sh = this.shift[f] as number;
+        const sh = shift[f] as number;
         exp10 += sh;
         if (exact && exp10 >= -22 && exp10 <= 22) {
           v = exp10 < 0 ? mant / (POW10[-exp10] as number) : mant * (POW10[exp10] as number);
