@@ -149,5 +149,7 @@ describe('lagbench analyze', () => {
     expect(r.code).toBe(0);
     expect(r.out).toMatch(/--setup <name>/);
     expect(r.out).toMatch(/Examples:/);
+    // The importer's options appear once, in their own section.
+    expect(r.out.match(/--time-format/g)).toHaveLength(1);
   });
 });

@@ -35,7 +35,7 @@ window covers 5 τ (settled), t63/t95/t99 and the fit quality. Several logs of o
 pressure logger and a flow logger) are merged onto one time base first.
 
 Options:
-${formatOptionHelp(specs)}
+${formatOptionHelp(analyzeOptionSpecs)}
 
 Import options (as for 'lagbench inspect'):
 ${formatOptionHelp(importOptionSpecs)}
