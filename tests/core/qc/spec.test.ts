@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { readFileSync, readdirSync } from 'node:fs';
+import { existsSync, readFileSync, readdirSync } from 'node:fs';
+import { join } from 'node:path';
 import { InputError } from '../../../src/core/errors';
 import { parseJsonLocated } from '../../../src/core/qc/json-locate';
 import { parseQcSpec } from '../../../src/core/qc/spec';
@@ -56,7 +57,11 @@ describe('parseQcSpec', () => {
   it('parseQcSpec(every example in qc-specs/) validates', () => {
     const files = readdirSync('qc-specs').filter((f) => f.endsWith('.json'));
     expect(files.length).toBeGreaterThan(0);
-    for (const f of files) expect(() => parseQcSpec(readFileSync(`qc-specs/${f}`, 'utf8'), f)).not.toThrow();
+    for (const f of files) {
+      const spec = parseQcSpec(readFileSync(`qc-specs/${f}`, 'utf8'), f);
+      // A referenced chip description must exist (paths are relative to the spec file).
+      if (spec.test.chipDescription) expect(existsSync(join('qc-specs', spec.test.chipDescription)), `${f}: ${spec.test.chipDescription}`).toBe(true);
+    }
   });
 
   it('parseQcSpec(nominal ± %) gives limits nominal·(1 ∓ tol/100) in SI', () => {
