@@ -217,6 +217,13 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
     const reason = `the drive levels of this step are not known as ${setup === 'flow-driven' ? 'flows' : 'pressures'} (steps found on ${quantity})`;
     return { fields: emptyFields(reason), estimate: null, warnings: [{ code: 'no-drive-levels', message: `R and C need ${reason}.` }] };
   }
+  // The pipeline falls back to fitting the measured drive quantity when the log lacks the response
+  // quantity (e.g. a controller log with pressure setpoint and measured pressure only): τ is known, R is not.
+  const expectedResponse = setup === 'flow-driven' ? 'pressure' : 'flow';
+  if (step.response.quantity !== expectedResponse) {
+    const reason = `the fitted response is a ${step.response.quantity}, not the ${expectedResponse} a ${setup} set-up needs for R`;
+    return { fields: emptyFields(reason), estimate: null, warnings: [{ code: 'no-response-quantity', message: `R and C need ${reason}.` }] };
+  }
   let estimate: CircuitEstimate;
   let gaugePa = Number.NaN;
   // Node gauge pressure settled before and after the step (for the secant pressure of the fingerprint).
@@ -332,6 +339,8 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
     physics.excess_compliance_ci95 = ci(excess.excessM3PerPa.ci95);
     physics.air_volume_m3_at_atm = num(air.volumeM3AtAtm);
     physics.air_volume_ci95 = ci(air.ci95);
+    physics.air_volume_m3_at_working_pressure = num(air.volumeM3AtWorkingPressure);
+    physics.air_volume_adiabatic_bound_m3_at_atm = num(air.adiabaticUpperBoundM3AtAtm);
     physics.air_statement = air.statement;
   }
   return {
