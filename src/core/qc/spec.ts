@@ -41,6 +41,7 @@ export function parseQcSpec(text: string, file?: string): QcSpec {
     issues.push({ path: formatJsonPath(path), ...at, problem, hint });
   };
   const spec = readSpec(doc.value, add);
+  issues.sort((a, b) => a.line - b.line || a.column - b.column);
   if (issues.length > 0 || spec === null) {
     const first = issues[0] ?? { path: '(top level)', line: 1, column: 1, problem: 'The spec is not valid', hint: 'See docs/qc-spec.md' };
     const others = issues.slice(1).map((s) => `\n  ${file ?? 'spec'}:${s.line}:${s.column}: ${s.path}: ${s.problem}. ${s.hint}.`);
