@@ -117,6 +117,17 @@ describe.skipIf(!haveBrowser)('desktop renderer in Chromium', () => {
     await shot('03-step-fit');
   });
 
+  it('the fit model settings refit every step (dead time on, then off)', async () => {
+    let runs = await analysisRuns();
+    await page.check('#fit-dead');
+    await waitForRunsAbove(runs);
+    await expect(page.textContent('[data-testid="fit-results"]')).resolves.toContain('Dead time');
+    runs = await analysisRuns();
+    await page.uncheck('#fit-dead');
+    await waitForRunsAbove(runs);
+    await expect(page.textContent('[data-testid="fit-results"]')).resolves.not.toContain('Dead time');
+  });
+
   it('the wheel zooms the recording chart and Reset zoom restores it', async () => {
     await page.click('#nav-recording');
     const canvas = page.locator('#view-recording [data-testid="recording-chart"]');

@@ -29,20 +29,31 @@ export const stepMarkersPlugin: Plugin = {
     ctx.font = `600 11px ${getComputedStyle(document.body).fontFamily}`;
     ctx.textAlign = 'center';
     ctx.textBaseline = 'top';
+    // Dense step lists (hundreds of steps on a long log): thin faint lines, and labels only where they fit.
+    const visible = onsets.filter((t) => {
+      const px = x.getPixelForValue(t);
+      return px >= chartArea.left - 1 && px <= chartArea.right + 1;
+    }).length;
+    const dense = visible > (chartArea.right - chartArea.left) / 12;
+    let lastLabelRight = -Infinity;
     onsets.forEach((t, i) => {
       const px = x.getPixelForValue(t);
       if (px < chartArea.left - 1 || px > chartArea.right + 1) return;
       const sel = opts.selected === i;
       ctx.strokeStyle = opts.color ?? '#c06a00';
-      ctx.lineWidth = sel ? 3 : 1.3;
-      ctx.setLineDash(sel ? [] : [5, 4]);
+      ctx.globalAlpha = dense && !sel ? 0.35 : 1;
+      ctx.lineWidth = sel ? 3 : dense ? 0.8 : 1.3;
+      ctx.setLineDash(sel || dense ? [] : [5, 4]);
       ctx.beginPath();
       ctx.moveTo(px, chartArea.top + 14);
       ctx.lineTo(px, chartArea.bottom);
       ctx.stroke();
       ctx.setLineDash([]);
+      ctx.globalAlpha = 1;
       const label = `S${i + 1}`;
       const w = ctx.measureText(label).width + 8;
+      if (!sel && px - w / 2 < lastLabelRight + 2) return;
+      lastLabelRight = px + w / 2;
       ctx.fillStyle = opts.color ?? '#c06a00';
       ctx.globalAlpha = sel ? 1 : 0.85;
       ctx.fillRect(px - w / 2, chartArea.top, w, 14);

@@ -2,6 +2,7 @@
 import type { App } from '../app';
 import { clear, el } from '../helpers/dom';
 import { button, caution, emptyState, viewHead } from './common';
+import { COMPLIANCE_UNIT, fmt, fmtCi, fmtSeconds, volumeUnitFor } from '../helpers/format';
 
 export function renderReportView(app: App, root: HTMLElement): void {
   clear(root);
@@ -26,6 +27,23 @@ export function renderReportView(app: App, root: HTMLElement): void {
     el('div', { class: 'inline' },
       button(desktop ? 'Export report…' : 'Download report (HTML)', () => void app.exportReport(), 'btn primary', { 'data-testid': 'export-report' }),
       button(desktop ? 'Save work…' : 'Download work file', () => void app.saveWork(), 'btn', { 'data-testid': 'save-work' })),
+  ));
+  root.append(el('section', { class: 'panel', 'aria-label': 'Key results' },
+    el('h3', { text: 'Key results' }),
+    el('table', {},
+      el('thead', {}, el('tr', {}, ...['Step', 'Onset (s)', 'τ (95 % CI)', 'Settled', `C (${COMPLIANCE_UNIT.label})`, 'Flags'].map((h) => el('th', { text: h })))),
+      el('tbody', {}, ...a.fits.slice(0, 50).map((f) => {
+        const slow = f.fit?.terms.at(-1);
+        return el('tr', {},
+          el('td', { text: `S${f.stepIndex + 1}` }),
+          el('td', { class: 'num', text: fmt(f.onsetS, 6) }),
+          el('td', { class: 'num', text: slow ? `${fmtSeconds(slow.tauS.value, 4)} [${fmtSeconds(slow.tauS.ci95[0])}, ${fmtSeconds(slow.tauS.ci95[1])}]` : 'no fit' }),
+          el('td', { text: f.fit ? (f.fit.settled ? 'yes' : 'no') : '—' }),
+          el('td', { class: 'num', text: f.complianceM3PerPa ? fmtCi(f.complianceM3PerPa.value, f.complianceM3PerPa.ci95, { label: '', fromSi: COMPLIANCE_UNIT.fromSi }) : '—' }),
+          el('td', { text: f.fit?.flags.map((x) => x.code).join(', ') || '—' }));
+      }))),
+    a.fits.length > 50 ? el('p', { class: 'small muted', text: `… and ${a.fits.length - 50} more in the report.` }) : null,
+    el('p', { class: 'conclusion', text: a.trappedAir ? `Trapped air: ${fmtCi(a.trappedAir.volumeM3AtAtm.value, a.trappedAir.volumeM3AtAtm.ci95, volumeUnitFor(a.trappedAir.volumeM3AtAtm.value))} at atmospheric pressure. ${a.trappedAir.conclusion}` : (a.trappedAirNote ?? 'Trapped air not assessed.') }),
   ));
   root.append(caution());
 }

@@ -58,6 +58,27 @@ function resultPanel(fv: StepFitView): HTMLElement {
   );
 }
 
+/** The fit model for every step: number of terms (or automatic by BIC), dead time, drift, robust loss. */
+function fitSettings(app: App): HTMLElement {
+  const f = app.state.fit;
+  const terms = el('select', { 'aria-label': 'Exponential terms', 'data-testid': 'fit-terms' });
+  for (const [v, t] of [['auto', 'auto (BIC)'], ['1', '1'], ['2', '2'], ['3', '3']] as const) terms.append(el('option', { value: v, text: t, selected: String(f.terms) === v }));
+  const robust = el('select', { 'aria-label': 'Robust loss' });
+  for (const [v, t] of [['none', 'least squares'], ['huber', 'Huber'], ['tukey', 'Tukey']] as const) robust.append(el('option', { value: v, text: t, selected: f.robust === v }));
+  const dead = el('input', { type: 'checkbox', id: 'fit-dead', checked: f.deadTime });
+  const drift = el('input', { type: 'checkbox', id: 'fit-drift', checked: f.drift });
+  const apply = (): void => {
+    app.state.fit = { terms: terms.value === 'auto' ? 'auto' : (Number(terms.value) as 1 | 2 | 3), deadTime: dead.checked, drift: drift.checked, robust: robust.value as 'none' | 'huber' | 'tukey' };
+    void app.analyzeNow();
+  };
+  for (const c of [terms, robust, dead, drift]) c.addEventListener('change', apply);
+  return el('div', { class: 'inline fit-settings', role: 'group', 'aria-label': 'Fit model' },
+    el('label', { class: 'inline small' }, 'Terms', terms),
+    el('label', { class: 'inline small', for: 'fit-dead' }, dead, 'dead time'),
+    el('label', { class: 'inline small', for: 'fit-drift' }, drift, 'drift'),
+    el('label', { class: 'inline small' }, 'Loss', robust));
+}
+
 export function renderStepsView(app: App, root: HTMLElement): void {
   clear(root);
   const s = app.state;
@@ -86,7 +107,7 @@ export function renderStepsView(app: App, root: HTMLElement): void {
     });
     tabs.append(t);
   });
-  root.append(el('div', { class: 'panel' }, tabs));
+  root.append(el('div', { class: 'panel step-head' }, tabs, fitSettings(app)));
   const fv = a.fits[idx];
   if (!fv) return;
   const top = canvasBox('mid', `Step S${idx + 1}: data and fitted curve`, 'fit-chart');
