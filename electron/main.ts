@@ -21,7 +21,7 @@ import { hardenContents, hardenSession } from './security';
 const RENDERER_DIR = join(__dirname, '..', 'renderer');
 const DEV_TOOLS = process.env.LAGBENCH_DEVTOOLS === '1';
 
-protocol.registerSchemesAsPrivileged([{ scheme: APP_SCHEME, privileges: { standard: true, secure: true, supportFetchAPI: true } }]);
+protocol.registerSchemesAsPrivileged([{ scheme: APP_SCHEME, privileges: { standard: true, secure: true, supportFetchAPI: true, corsEnabled: true } }]);
 
 let mainWindow: BrowserWindow | null = null;
 

@@ -53,7 +53,7 @@ describe('main', () => {
     expect(prefs.nodeIntegration).toBe(false);
     expect(prefs.webviewTag).toBe(false);
     expect(windows[0]?.url).toBe('lagbench-app://ui/index.html');
-    expect(schemes).toEqual([{ scheme: 'lagbench-app', privileges: { standard: true, secure: true, supportFetchAPI: true } }]);
+    expect(schemes).toEqual([{ scheme: 'lagbench-app', privileges: { standard: true, secure: true, supportFetchAPI: true, corsEnabled: true } }]);
     expect([...handlers.keys()].sort()).toEqual([
       'lagbench:clear-recent', 'lagbench:list-recent', 'lagbench:open-chip', 'lagbench:open-logs', 'lagbench:open-work', 'lagbench:read-logs', 'lagbench:save-report', 'lagbench:save-work',
     ]);

@@ -34,14 +34,16 @@ export const stepMarkersPlugin: Plugin = {
       const px = x.getPixelForValue(t);
       return px >= chartArea.left - 1 && px <= chartArea.right + 1;
     }).length;
-    const dense = visible > (chartArea.right - chartArea.left) / 12;
+    const width = chartArea.right - chartArea.left;
+    const dense = visible > width / 12;
+    const crowded = visible > width / 3;
     let lastLabelRight = -Infinity;
     onsets.forEach((t, i) => {
       const px = x.getPixelForValue(t);
       if (px < chartArea.left - 1 || px > chartArea.right + 1) return;
       const sel = opts.selected === i;
       ctx.strokeStyle = opts.color ?? '#c06a00';
-      ctx.globalAlpha = dense && !sel ? 0.35 : 1;
+      ctx.globalAlpha = sel ? 1 : crowded ? 0.12 : dense ? 0.35 : 1;
       ctx.lineWidth = sel ? 3 : dense ? 0.8 : 1.3;
       ctx.setLineDash(sel || dense ? [] : [5, 4]);
       ctx.beginPath();
