@@ -9,6 +9,7 @@ import { chooseSetup, responseChannel, SETUP_QUANTITIES } from '../steps/choose-
 import { detectSteps } from '../steps/detect';
 import { noiseSigmaFromDifferences } from '../steps/robust';
 import type { Ramp, Setup, Step, StepDetection } from '../steps/types';
+import { defaultFitter } from './default-fitter';
 import { sameLevelGroups } from './shared';
 import { ci, fitJson, num, termJson, warningJson } from './to-json';
 import type { AnalysisJson, AnalyzeOptions, Fitter, SharedFitJson, StepJson, WarningJson } from './types';
@@ -20,10 +21,11 @@ export const DEFAULT_MAX_FIT_POINTS = 5000;
 export const MIN_WINDOW_POINTS = 8;
 
 /**
- * Analyses one recording. Throws InputError when the setup's response channel is missing or a
+ * Analyses one recording with `fitter` (default: src/core/fit; the app's worker passes a wrapper that
+ * keeps each window for its plots). Throws InputError when the setup's response channel is missing or a
  * named channel does not exist; everything recoverable becomes a warning in the result.
  */
-export function analyzeRecording(recording: Recording, options: AnalyzeOptions, fitter: Fitter): AnalysisJson {
+export function analyzeRecording(recording: Recording, options: AnalyzeOptions = {}, fitter: Fitter = defaultFitter): AnalysisJson {
   const progress = options.onProgress ?? (() => undefined);
   progress(0, 'steps');
   const setupChoice = chooseSetup(recording, options.setup);
