@@ -3,11 +3,14 @@
  * a small lab priming a batch of PDMS mixer chips). Run: npx tsx scripts/make-sample-logs.ts
  *
  * Every case writes its chip description, its program, the log(s) and <log>.truth.json side by side.
+ * Also sample-logs/lot-A/: one log per chip of a small lot for `lagbench qc` (channel heights vary from
+ * chip to chip; two chips carry trapped air).
  * Deterministic: fixed seeds and a fixed start date, so re-running gives identical bytes.
  */
 import { mkdirSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { parseChipDescription } from '../src/core/chip/parse';
+import { parseQuantity } from '../src/core/chip/quantity';
 import { writeLog } from '../src/core/logformat';
 import { SIM_DIALECTS } from '../src/core/simulate/dialects';
 import { parseProgramCsv } from '../src/core/simulate/program-csv';
@@ -112,3 +115,76 @@ for (const c of CASES) {
     console.log(`${join(OUT, f)}  ${(size / 1024).toFixed(1)} KB`);
   }
 }
+
+// ---- sample-logs/lot-A: a lot of six PDMS mixer chips for `lagbench qc` --------------------------------
+const LOT = 'sample-logs/lot-A';
+const LOT_PROGRAM = `# Invented demo program: the QC flow steps 2 -> 5 -> 10 -> 5 -> 2 uL/min, 30 s each.
+time_s,flow[uL/min]
+0,2
+15,5
+45,10
+75,5
+105,2
+`;
+/** Per chip: relative channel height (moulding variation, invented) and trapped air at 1 atm (m³). */
+const LOT_CHIPS: Array<[string, number, number]> = [
+  ['M2-001', 1.0, 0],
+  ['M2-002', 0.985, 1.5e-9],
+  ['M2-003', 1.02, 0],
+  ['M2-004', 0.99, 0],
+  ['M2-005', 1.01, 3e-9],
+  ['M2-006', 0.975, 0],
+];
+
+/** The design with every channel height of the chip section scaled by `factor` (SI numbers written back). */
+function scaledHeights(designText: string, factor: number): string {
+  const doc = JSON.parse(designText) as { name: string; note: string; path: { chip: unknown[] } };
+  const walk = (list: unknown[]): void => {
+    for (const el of list) {
+      const e = el as { height?: string | number; branches?: unknown[][] };
+      if (e.height !== undefined) {
+        const q = parseQuantity(String(e.height), 'length');
+        if ('error' in q) throw new Error(q.error);
+        e.height = Number((q.value * factor).toPrecision(6));
+      }
+      for (const b of e.branches ?? []) walk(b);
+    }
+  };
+  walk(doc.path.chip);
+  doc.note = `${doc.note} Channel heights ×${factor} of the design (invented moulding variation).`;
+  return `${JSON.stringify(doc, null, 2)}\n`;
+}
+
+mkdirSync(LOT, { recursive: true });
+writeFileAtomic(join(LOT, 'lot-A.program.csv'), LOT_PROGRAM);
+const design = readFileSync('sample-logs/chips/pdms-mixer.json', 'utf8');
+LOT_CHIPS.forEach(([id, factor, gas], i) => {
+  const chipFile = join(LOT, `${id}.chip.json`);
+  const text = scaledHeights(design, factor);
+  writeFileAtomic(chipFile, text);
+  const chip = parseChipDescription(text, chipFile);
+  const program = parseProgramCsv(LOT_PROGRAM, join(LOT, 'lot-A.program.csv'));
+  const log = `${id}.csv`;
+  const result = simulateScenario(chip, program, {
+    setup: 'flow-driven', seed: 201 + i, sampleRateHz: 10, noise: 'typical', jitterS: 0, fileNames: [log],
+    build: { extraGasAtAtmM3: gas }, startEpochMs: Date.UTC(2026, 2, 3, 8, 0, 0) + i * 15 * 60_000,
+  });
+  const rec = result.logs[0]?.recording;
+  if (!rec) throw new Error(`${id}: no log`);
+  rec.metadata = { chip: id, lot: 'A', ...rec.metadata };
+  writeFileAtomic(join(LOT, log), writeLog(rec, SIM_DIALECTS['bench-csv']?.dialect ?? {}));
+  writeFileAtomic(join(LOT, `${log}.truth.json`), `${JSON.stringify(result.truth, null, 2)}\n`);
+  console.log(`${join(LOT, log)}  ${(statSync(join(LOT, log)).size / 1024).toFixed(1)} KB`);
+});
+writeFileAtomic(
+  join(LOT, 'README.md'),
+  `# Lot A (invented demo data)
+
+Simulated by \`scripts/make-sample-logs.ts\`: six PDMS mixer chips of the invented demo design
+(\`../chips/pdms-mixer.json\`), each with its own channel heights (\`M2-00n.chip.json\`, a moulding variation
+of -2.5 % to +2 %), run through the QC flow steps of \`lot-A.program.csv\`. M2-002 and M2-005 carry 1.5 µL and 3 µL
+of trapped air. \`<log>.truth.json\` holds the true R, C, τ's and air of each. Not real measurements.
+
+    npx lagbench qc sample-logs/lot-A --spec qc-specs/pdms-mixer-m2.json --lot A --operator "J. Doe"
+`,
+);

@@ -1,5 +1,5 @@
 /**
- * The simulated demo logs in sample-logs/simulated/ (made by scripts/make-sample-logs.ts): analyze on
+ * The simulated demo logs in sample-logs/simulated/ and sample-logs/lot-A/ (made by scripts/make-sample-logs.ts): analyze on
  * each recovers the truth written beside it. Each step's τ, R and C 95 % CI is checked against the true
  * value (or, with trapped gas, the range the small-signal value spans across the step; physics.md §3.3).
  * With about 60 such intervals a few misses are expected by chance (Binomial(60, 0.05) has mean 3), so
@@ -38,7 +38,9 @@ function check(what: string, ci: [number, number], [lo, hi]: [number, number]): 
   checks.push({ what: `${what}: CI ${ci[0].toPrecision(5)}…${ci[1].toPrecision(5)}, truth ${lo.toPrecision(5)}…${hi.toPrecision(5)}`, outside: half > 0 ? gap / half : gap > 0 ? Infinity : 0 });
 }
 
+const LOT = 'sample-logs/lot-A';
 const truths = existsSync(DIR) ? readdirSync(DIR).filter((f) => f.endsWith('.truth.json')) : [];
+const lotTruths = existsSync(LOT) ? readdirSync(LOT).filter((f) => f.endsWith('.truth.json')).map((f) => join(LOT, f)) : [];
 
 describe('simulated sample logs', () => {
   it('sample-logs/simulated holds the five demo cases', () => {
@@ -51,10 +53,14 @@ describe('simulated sample logs', () => {
     ]);
   });
 
-  for (const file of truths) {
+  it('sample-logs/lot-A holds six chips', () => {
+    expect(lotTruths).toHaveLength(6);
+  });
+
+  for (const file of [...truths.map((f) => join(DIR, f)), ...lotTruths]) {
     it(`analyze ${file.replace('.truth.json', '')} recovers its truth`, async () => {
-      const truth = JSON.parse(readFileSync(join(DIR, file), 'utf8')) as Truth;
-      const logs = truth.loggers.map((l) => join(DIR, l.file));
+      const truth = JSON.parse(readFileSync(file, 'utf8')) as Truth;
+      const logs = truth.loggers.map((l) => join(file, '..', l.file));
       const io = captureIo();
       const args = ['analyze', ...logs, ...(logs.length > 1 ? ['--offset', '0'] : []), '--chip', truth.chip.file, '--json'];
       expect(await runCli(args, io), io.stderrText()).toBe(0);
@@ -74,8 +80,8 @@ describe('simulated sample logs', () => {
     });
   }
 
-  it('the CIs of all sample logs cover the truth (≤ 15 % misses, none by more than 2 half-widths)', () => {
-    expect(checks.length).toBeGreaterThanOrEqual(45);
+  it('the CIs of all simulated sample logs cover the truth (≤ 15 % misses, none by more than 2 half-widths)', () => {
+    expect(checks.length).toBeGreaterThanOrEqual(110);
     const misses = checks.filter((c) => c.outside > 0);
     expect(misses.length / checks.length, misses.map((m) => m.what).join('\n')).toBeLessThanOrEqual(0.15);
     for (const m of misses) expect(m.outside, m.what).toBeLessThanOrEqual(2);
