@@ -44,14 +44,14 @@ function reportText(r: ImportReport): string {
       `${d.headerRows === 0 ? 'no header' : `header at line ${d.headerLine}${d.headerRows === 2 ? ' with a units row' : ''}`}` +
       `${d.forced.length ? `; set by options: ${d.forced.join(', ')}` : ''}`,
   );
-  lines.push(`  time: ${d.timeColumn === null ? 'from the sample rate' : `column ${d.timeColumn}, ${d.timeFormat}`}`);
+  lines.push(`  time: ${d.timeColumn === null ? 'from the sample rate' : `column ${d.timeColumn}, ${d.timeFormat}${d.dateColumn !== null ? `, date from column ${d.dateColumn}` : ''}`}`);
   lines.push('  columns:');
   const rows = r.columns.map((c) => [
     String(c.column),
     c.header === '' ? '(no header)' : c.header,
-    c.role === 'time' ? 'time' : c.role === 'ignored' ? 'ignored' : `${c.quantity} → ${c.channelName}`,
+    c.role === 'time' || c.role === 'date' || c.role === 'ignored' ? c.role : `${c.quantity} → ${c.channelName}`,
     c.unit === '' ? '' : `${c.unit}${c.role === 'channel' && c.factorToSi !== 1 ? ` (×${fmt(c.factorToSi, 7)} to SI)` : ''}`,
-    c.role === 'channel' ? `quantity from ${c.quantityFrom}, unit from ${c.unitFrom}` : c.role === 'time' ? `recognised by ${c.quantityFrom}` : '',
+    c.role === 'channel' ? `quantity from ${c.quantityFrom}, unit from ${c.unitFrom}` : c.role === 'time' || c.role === 'date' ? `recognised by ${c.quantityFrom}` : '',
   ]);
   const widths = [0, 1, 2, 3].map((k) => Math.max(...rows.map((row) => (row[k] as string).length)));
   for (const row of rows) lines.push(`    ${row.map((cell, k) => (k < 4 ? cell.padEnd(widths[k] as number) : cell)).join('  ').trimEnd()}`);

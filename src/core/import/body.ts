@@ -13,7 +13,7 @@ import type { ChannelPlan } from './columns';
 import { isCommentLine } from './detect';
 import { parseNumberText, splitFields, unquote, withoutTrailingEmpty } from './fields';
 import { GrowableFloat64 } from './growable';
-import { parseHmsParts, parseIsoTime } from './time-text';
+import { parseHmsParts, parseIsoDate, parseIsoTime } from './time-text';
 import type { Delimiter, TimeFormat } from './types';
 
 export interface BodyConfig {
@@ -22,6 +22,8 @@ export interface BodyConfig {
   decimal: '.' | ',';
   fieldCount: number;
   timeIndex: number | null;
+  /** 0-based index of a YYYY-MM-DD column completing clock times, or null. */
+  dateIndex?: number | null;
   timeFormat: TimeFormat | 'sample-rate';
   timeFactor: number;
   sampleRateHz?: number;
@@ -48,6 +50,8 @@ export interface BodyResult {
   firstEpochMs: number | null;
   /** Seconds of day of the first sample for clock times (to combine with a date from metadata). */
   firstClockS: number | null;
+  /** Epoch ms of the first sample's date, when a date column completes clock times. */
+  firstDateMs: number | null;
   /** The first sample's time as read (seconds, before shifting to start at 0; ISO: within its first second). */
   firstRawS: number;
   values: Float64Array[];
@@ -78,6 +82,10 @@ export class BodyParser {
   private readonly timeIdx: number;
   /** Index of the time field when it is text (ISO, hh:mm:ss), else -1. */
   private readonly textTimeField: number;
+  /** Index of a date field (YYYY-MM-DD) completing clock times, else -1. */
+  private readonly dateField: number;
+  private baseDateMs: number | null = null;
+  private firstDateMs: number | null = null;
   private readonly chanIndex: Int32Array;
   private readonly chanFactor: Float64Array;
   private carry = '';
@@ -114,6 +122,7 @@ export class BodyParser {
     this.numericTime = cfg.timeFormat === 'seconds' || cfg.timeFormat === 'milliseconds' || cfg.timeFormat === 'minutes' || cfg.timeFormat === 'hours';
     this.timeIdx = cfg.timeIndex ?? -1;
     this.textTimeField = this.numericTime ? -1 : this.timeIdx;
+    this.dateField = cfg.dateIndex ?? -1;
     // A factor 10^k (mbar → Pa, kPa → Pa, ms → s) is applied by shifting the decimal exponent while reading,
     // so that '0.315068' kPa becomes exactly the double nearest 315.068 Pa (multiplying by 1000 would not).
     this.shift = new Int32Array(cfg.fieldCount);
@@ -197,7 +206,18 @@ export class BodyParser {
         }
         return true;
       }
-      if (f === textTimeField) {
+      if (f === this.dateField) {
+        let j = i;
+        if (ws) while (j < end && s.charCodeAt(j) !== SPACE && s.charCodeAt(j) !== TAB) j++;
+        else {
+          j = s.indexOf(String.fromCharCode(delim), i);
+          if (j < 0 || j > end) j = end;
+        }
+        const dateMs = parseIsoDate(s.slice(i, j).trim());
+        if (dateMs === null) return false;
+        row[f] = dateMs;
+        i = j;
+      } else if (f === textTimeField) {
         let j = i;
         if (ws) while (j < end && s.charCodeAt(j) !== SPACE && s.charCodeAt(j) !== TAB) j++;
         else {
@@ -314,7 +334,7 @@ export class BodyParser {
       this.firstClockS = p.wholeS + p.fractionS;
     }
     let t = p.wholeS - this.hmsBaseWholeS + this.dayOffsetS + p.fractionS;
-    if (this.cfg.timeFormat === 'clock') {
+    if (this.cfg.timeFormat === 'clock' && this.dateField < 0) {
       // a time of day far below the previous one means the log passed midnight
       if (this.prevClockS !== null && t < this.prevClockS - HALF_DAY_S) {
         this.dayOffsetS += DAY_S;
@@ -357,6 +377,14 @@ export class BodyParser {
         this.row[f] = t;
         continue;
       }
+      if (f === this.dateField) {
+        const dateMs = parseIsoDate(field);
+        if (dateMs === null) {
+          return this.bad(lineNo, f + 1, 'bad-time-value', `The date '${unquote(field)}' is not a date written YYYY-MM-DD`, 'Fix the value, or skip such rows with --skip-bad-rows');
+        }
+        this.row[f] = dateMs;
+        continue;
+      }
       if (!this.chanIndex.includes(f)) continue; // an ignored column may hold anything
       const v = parseNumberText(field, cfg.decimal);
       if (v === 'invalid') {
@@ -395,6 +423,14 @@ export class BodyParser {
     }
     else {
       t = this.row[this.timeIdx] as number;
+      if (this.dateField >= 0) {
+        const dateMs = this.row[this.dateField] as number;
+        if (this.baseDateMs === null) {
+          this.baseDateMs = dateMs;
+          this.firstDateMs = dateMs;
+        }
+        t += (dateMs - this.baseDateMs) / 1000; // whole days: exact
+      }
     }
     this.dataRows++;
     if (!(t > this.lastT)) {
@@ -515,6 +551,7 @@ export class BodyParser {
       timeS,
       firstEpochMs,
       firstClockS: this.firstClockS,
+      firstDateMs: this.firstDateMs,
       firstRawS: first,
       values,
       rows: timeS.length,

@@ -32,6 +32,8 @@ export interface ColumnPlan {
   timeFormat: TimeFormat | 'sample-rate';
   /** Factor to seconds for numeric time formats. */
   timeFactor: number;
+  /** 0-based field index of a date column completing a clock time, or null. */
+  dateIndex: number | null;
   channels: ChannelPlan[];
   reports: ColumnReport[];
   warnings: Warning[];
@@ -106,7 +108,7 @@ export function planColumns(layout: Layout, options: ImportOptions): ColumnPlan 
       timeIndex = byName;
       timeFrom = 'header-name';
     } else {
-      const byValue = cells.findIndex((_, i) => textTimeKind(firstValue(i)) !== null);
+      const byValue = cells.findIndex((_, i) => { const k = textTimeKind(firstValue(i)); return k === 'iso' || k === 'hms'; });
       if (byValue >= 0) {
         timeIndex = byValue;
         timeFrom = 'position';
@@ -153,6 +155,15 @@ export function planColumns(layout: Layout, options: ImportOptions): ColumnPlan 
     }
     timeFactor = timeFormat === 'milliseconds' ? 1e-3 : timeFormat === 'minutes' ? 60 : timeFormat === 'hours' ? 3600 : 1;
   }
+  // a separate date column (YYYY-MM-DD) next to a time-of-day column: together they are an absolute time
+  let dateIndex: number | null = null;
+  if (timeIndex !== null && (timeFormat === 'clock' || timeFormat === 'elapsed') && !options.timeFormat) {
+    const d = cells.findIndex((_, i) => i !== timeIndex && textTimeKind(firstValue(i)) === 'date');
+    if (d >= 0) {
+      dateIndex = d;
+      timeFormat = 'clock';
+    }
+  }
 
   // --- channels ---
   const reports: ColumnReport[] = [];
@@ -166,6 +177,10 @@ export function planColumns(layout: Layout, options: ImportOptions): ColumnPlan 
     const cell = cells[i] ?? null;
     const header = cell?.header ?? '';
     const override = findOverride(overrides, i, cell);
+    if (i === dateIndex) {
+      reports.push({ column: i + 1, header, unit: '', role: 'date', quantity: null, factorToSi: Number.NaN, quantityFrom: 'position', unitFrom: 'none' });
+      continue;
+    }
     if (i === timeIndex) {
       reports.push({ column: i + 1, header, unit: cell?.unit ?? '', role: 'time', quantity: null, factorToSi: timeFactor, quantityFrom: timeFrom, unitFrom: cell?.unit ? (unitFromRow(i) ? 'units-row' : 'header-unit') : 'none' });
       continue;
@@ -235,5 +250,5 @@ export function planColumns(layout: Layout, options: ImportOptions): ColumnPlan 
     const r = reports[reportIndexOf[k] as number];
     if (r) r.channelName = c.name;
   });
-  return { timeIndex, timeFormat, timeFactor, channels, reports, warnings };
+  return { timeIndex, timeFormat, timeFactor, dateIndex, channels, reports, warnings };
 }

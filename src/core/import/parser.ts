@@ -75,6 +75,7 @@ export function createLogParser(options: ImportOptions = {}): LogParser {
       decimal: layout.decimal,
       fieldCount: layout.fieldCount,
       timeIndex: plan.timeIndex,
+      dateIndex: plan.dateIndex,
       timeFormat: plan.timeFormat,
       timeFactor: plan.timeFactor,
       sampleRateHz: options.sampleRateHz,
@@ -151,8 +152,9 @@ function assemble(layout: Layout, plan: ColumnPlan, body: BodyResult, options: I
   const warnings: Warning[] = [...plan.warnings, ...body.warnings];
   const meta = startFromMetadata(layout.metadata, options, warnings);
   let startEpochMs: number | null = body.firstEpochMs;
-  if (startEpochMs === null && plan.timeFormat === 'clock' && body.firstClockS !== null && meta.dateMs !== null) {
-    startEpochMs = meta.dateMs + Math.round((body.firstClockS - (options.timezoneOffsetMin ?? 0) * 60) * 1e9) / 1e6;
+  const dateMs = body.firstDateMs ?? meta.dateMs;
+  if (startEpochMs === null && plan.timeFormat === 'clock' && body.firstClockS !== null && dateMs !== null) {
+    startEpochMs = dateMs + Math.round((body.firstClockS - (options.timezoneOffsetMin ?? 0) * 60) * 1e9) / 1e6;
     if (options.timezoneOffsetMin === undefined) {
       warnings.push({ code: 'timezone-assumed-utc', message: 'Clock times carry no time zone; they were taken as UTC (give the logger\'s zone with --timezone)' });
     }
@@ -194,6 +196,7 @@ function assemble(layout: Layout, plan: ColumnPlan, body: BodyResult, options: I
       headerLine: layout.headerLine,
       timeFormat: plan.timeFormat,
       timeColumn: plan.timeIndex === null ? null : plan.timeIndex + 1,
+      dateColumn: plan.dateIndex === null ? null : plan.dateIndex + 1,
       forced,
     },
     columns: plan.reports,

@@ -59,17 +59,23 @@ export function parseHmsSeconds(text: string): number | null {
   return p === null ? null : p.wholeS + p.fractionS;
 }
 
-/** Which text time form a field has, if any. */
-export function textTimeKind(field: string): 'iso' | 'hms' | null {
+const DATE_RE = /^(\d{4})-(\d{2})-(\d{2})$/;
+
+/** Which text time form a field has, if any: ISO date-time, hh:mm:ss, or a date alone (YYYY-MM-DD). */
+export function textTimeKind(field: string): 'iso' | 'hms' | 'date' | null {
   const t = field.trim().replace(/^"|"$/g, '');
   if (ISO_RE.test(t)) return 'iso';
   if (HMS_RE.test(t)) return 'hms';
+  if (DATE_RE.test(t)) return 'date';
   return null;
 }
 
 /** A calendar date (YYYY-MM-DD) in a metadata value, as epoch ms of its midnight UTC, or null. */
 export function parseIsoDate(text: string): number | null {
-  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(text.trim());
+  const m = DATE_RE.exec(text.trim().replace(/^"|"$/g, ''));
   if (!m) return null;
-  return Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3]));
+  const month = Number(m[2]);
+  const day = Number(m[3]);
+  if (month < 1 || month > 12 || day < 1 || day > 31) return null;
+  return Date.UTC(Number(m[1]), month - 1, day);
 }

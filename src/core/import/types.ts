@@ -67,7 +67,8 @@ export interface ColumnReport {
   header: string;
   /** Unit text as found (or given by option), '' if none. */
   unit: string;
-  role: 'time' | 'channel' | 'ignored';
+  /** `date`: a YYYY-MM-DD column completing a clock-time column. */
+  role: 'time' | 'date' | 'channel' | 'ignored';
   quantity: Quantity | null;
   /** Factor applied to reach SI (1 for time in s; NaN when not converted). */
   factorToSi: number;
@@ -92,6 +93,8 @@ export interface DialectReport {
   timeFormat: TimeFormat | 'sample-rate';
   /** 1-based time column, or null when time comes from the sample rate. */
   timeColumn: number | null;
+  /** 1-based date column (YYYY-MM-DD) that completes a clock-time column, or null. */
+  dateColumn: number | null;
   /** Which settings came from options rather than detection. */
   forced: string[];
 }

@@ -10,7 +10,8 @@ export interface LogDialect {
   lineEnding: '\n' | '\r\n';
   /** Start with a UTF-8 byte-order mark (U+FEFF). */
   bom: boolean;
-  timeFormat: 'seconds' | 'milliseconds' | 'elapsed' | 'clock' | 'iso' | 'none';
+  /** `date-clock`: a Date column (YYYY-MM-DD) and a Time column (hh:mm:ss.sss), local time in `utcOffsetMin`. */
+  timeFormat: 'seconds' | 'milliseconds' | 'elapsed' | 'clock' | 'date-clock' | 'iso' | 'none';
   /** Decimals of the seconds in elapsed/clock/ISO times (0–6). */
   timeDecimals: number;
   /** ISO timestamps: zone written as `Z`, as a numeric offset, or not at all (then local time in `utcOffsetMin`). */

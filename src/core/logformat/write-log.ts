@@ -68,12 +68,14 @@ function timeText(r: Recording, i: number, d: LogDialect): string {
       return `${pad(Math.floor(whole / 3600), 2)}:${pad(Math.floor(whole / 60) % 60, 2)}:${pad(whole % 60, 2)}${frac}`;
     }
     case 'clock':
+    case 'date-clock':
     case 'iso': {
       const startMs = r.startEpochMs ?? 0;
       const units = Math.round(startMs * 10 ** (d.timeDecimals - 3)) + timeUnits(t, d.timeDecimals) + (d.isoZone === 'Z' && d.timeFormat === 'iso' ? 0 : d.utcOffsetMin * 60 * 10 ** d.timeDecimals);
       const { whole, frac } = fractionText(units, d.timeDecimals, d.timeDecimalSign);
       const iso = new Date(whole * 1000).toISOString(); // YYYY-MM-DDTHH:MM:SS.000Z
       if (d.timeFormat === 'clock') return `${iso.slice(11, 19)}${frac}`;
+      if (d.timeFormat === 'date-clock') return `${iso.slice(0, 10)}\u0000${iso.slice(11, 19)}${frac}`;
       const zone = d.isoZone === 'Z' ? 'Z' : d.isoZone === 'offset' ? offsetText(d.utcOffsetMin) : '';
       return `${iso.slice(0, 19)}${frac}${zone}`;
     }
@@ -116,17 +118,18 @@ export function writeLog(recording: Recording, dialect: Partial<LogDialect> = {}
   if (d.metadataLines && !d.headerless) {
     for (const [k, v] of Object.entries(recording.metadata)) parts.push(`# ${k}: ${v}${nl}`);
   }
-  const timeName = { seconds: 'Time', milliseconds: 'Time', elapsed: 'Elapsed time', clock: 'Clock time', iso: 'Timestamp', none: '' }[d.timeFormat];
+  const timeName = { seconds: 'Time', milliseconds: 'Time', elapsed: 'Elapsed time', clock: 'Clock time', 'date-clock': 'Time', iso: 'Timestamp', none: '' }[d.timeFormat];
+  const dateClock = d.timeFormat === 'date-clock';
   const timeUnit = d.timeFormat === 'seconds' ? 's' : d.timeFormat === 'milliseconds' ? 'ms' : '';
   const hasTime = d.timeFormat !== 'none';
   const trail = d.trailingDelimiter ? sep : '';
   if (!d.headerless) {
-    const header = [...(hasTime ? [headerCell(timeName, timeUnit, d)] : []), ...cols.map((c) => headerCell(c.name, c.unit, d))];
+    const header = [...(dateClock ? ['Date'] : []), ...(hasTime ? [headerCell(timeName, timeUnit, d)] : []), ...cols.map((c) => headerCell(c.name, c.unit, d))];
     parts.push(header.map((h) => quoteIfNeeded(h, d.delimiter === 'whitespace' ? ' ' : d.delimiter)).join(sep) + trail + nl);
     if (d.unitStyle === 'units-row') {
       // between runs of spaces an empty cell would vanish: '-' stands for "no unit" there
       const none = d.delimiter === 'whitespace' ? '-' : '';
-      parts.push([...(hasTime ? [timeUnit || none] : []), ...cols.map((c) => c.unit.replace(/\s+/g, '') || none)].join(sep) + trail + nl);
+      parts.push([...(dateClock ? [none] : []), ...(hasTime ? [timeUnit || none] : []), ...cols.map((c) => c.unit.replace(/\s+/g, '') || none)].join(sep) + trail + nl);
     }
   }
   const q = d.quoteNumbers ? '"' : '';
@@ -137,7 +140,8 @@ export function writeLog(recording: Recording, dialect: Partial<LogDialect> = {}
     if (hasTime) {
       let t = timeText(recording, i, d);
       if ((d.timeFormat === 'seconds' || d.timeFormat === 'milliseconds') && dec === ',') t = t.replace('.', ',');
-      cells.push(d.timeFormat === 'seconds' || d.timeFormat === 'milliseconds' ? `${q}${t}${q}` : t);
+      if (dateClock) cells.push(...t.split('\u0000'));
+      else cells.push(d.timeFormat === 'seconds' || d.timeFormat === 'milliseconds' ? `${q}${t}${q}` : t);
     }
     for (const c of cols) {
       const v = c.values[i] as number;

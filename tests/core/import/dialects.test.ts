@@ -144,6 +144,15 @@ describe('parseLogText time formats', () => {
     expect(recording.startEpochMs).toBe(Date.UTC(2026, 2, 14, 23, 59, 59, 500));
   });
 
+  it('parseLogText(separate Date and Time columns) combines them, across midnight without a rollover guess', () => {
+    const { recording, report } = parseLogText('Date;Time;Pressure [mbar]\n2026-03-14;23:59:59,5;1\n2026-03-15;00:00:00,5;2\n2026-03-16;00:00:00,5;3\n');
+    expect(report.dialect).toMatchObject({ timeFormat: 'clock', timeColumn: 2, dateColumn: 1 });
+    expect(report.columns[0]!.role).toBe('date');
+    expect(Array.from(recording.timeS)).toEqual([0, 1, 86401]);
+    expect(recording.startEpochMs).toBe(Date.UTC(2026, 2, 14, 23, 59, 59, 500));
+    expect(report.warnings.map((w) => w.code)).not.toContain('midnight-rollover');
+  });
+
   it('parseLogText(ISO 8601 with Z, dot decimals) keeps the absolute start', () => {
     const { recording } = parseLogText('Timestamp,P [Pa]\n2026-03-14T09:00:00.000Z,1\n2026-03-14T09:00:00.010Z,2\n');
     expect(recording.startEpochMs).toBe(Date.UTC(2026, 2, 14, 9, 0, 0, 0));

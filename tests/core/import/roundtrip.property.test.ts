@@ -32,7 +32,7 @@ const caseArb = fc
     decimal: fc.constantFrom<LogDialect['decimal']>('.', ','),
     lineEnding: fc.constantFrom<LogDialect['lineEnding']>('\n', '\r\n'),
     bom: fc.boolean(),
-    timeFormat: fc.constantFrom<LogDialect['timeFormat']>('seconds', 'milliseconds', 'elapsed', 'clock', 'iso'),
+    timeFormat: fc.constantFrom<LogDialect['timeFormat']>('seconds', 'milliseconds', 'elapsed', 'clock', 'date-clock', 'iso'),
     isoZone: fc.constantFrom<LogDialect['isoZone']>('Z', 'offset', 'none'),
     utcOffsetMin: fc.constantFrom(0, 60, -300, 330),
     timeDecimalSign: fc.constantFrom<LogDialect['timeDecimalSign']>('.', ','),
@@ -93,13 +93,13 @@ describe('writeLog → parseLogText round trip (fast-check)', () => {
         // a quantity appears with one unit per dialect (the writer's units map is per quantity)
         const unitOf = dialect.units as Record<string, string>;
         const text = writeLog(recording, dialect);
-        const { recording: back, report } = parseLogText(text, c.isoZone === 'none' ? { timezoneOffsetMin: c.utcOffsetMin } : {});
+        const { recording: back, report } = parseLogText(text, c.isoZone === 'none' || c.timeFormat === 'date-clock' ? { timezoneOffsetMin: c.utcOffsetMin } : {});
         expect(report.dialect.delimiter).toBe(c.delimiter);
         expect(report.dialect.hadBom).toBe(c.bom);
         expect(back.metadata).toEqual(c.metadata);
         expect(back.timeS.length).toBe(c.rows);
         for (let i = 0; i < c.rows; i++) expect(Math.abs((back.timeS[i] as number) - (timeS[i] as number))).toBeLessThan(1e-9);
-        if (c.timeFormat === 'iso') expect(back.startEpochMs).toBe(c.startEpochMs);
+        if (c.timeFormat === 'iso' || c.timeFormat === 'date-clock') expect(back.startEpochMs).toBe(c.startEpochMs);
         expect(back.channels.map((x) => x.quantity)).toEqual(c.channels.map((x) => x.quantity));
         back.channels.forEach((ch, k) => {
           const original = recording.channels[k]!;
