@@ -296,6 +296,30 @@ describe.skipIf(!haveBrowser)('desktop renderer in Chromium', () => {
     await shot('09-two-logs-import');
   });
 
+  it('the pressure-controller sample log is read, its steps found and fitted', async () => {
+    const runs = await analysisRuns();
+    await page.setInputFiles('#file-input-logs', join(process.cwd(), 'sample-logs', 'pressure-controller.csv'));
+    await waitForRunsAbove(runs);
+    expect(await page.inputValue('#setup-select')).toBe('pressure-driven');
+    await page.click('#nav-steps');
+    await page.waitForSelector('[data-testid="tau-value-0"]');
+    expect(Number(await page.getAttribute('[data-testid="tau-value-0"]', 'data-si'))).toBeGreaterThan(0);
+    await shot('12-pressure-driven-fit');
+  });
+
+  it('overriding a column unit re-reads the file with the new factor', async () => {
+    await page.click('#nav-import');
+    // Column 3 is "Pressure [mbar]": 1 mbar = 100 Pa, 1 kPa = 1000 Pa (BIPM SI brochure, Table 8).
+    const unit = page.locator('[data-testid="columns-0"] tbody tr:nth-child(3) input');
+    expect(await page.textContent('[data-testid="columns-0"] tbody tr:nth-child(3) td:nth-child(5)')).toBe('100');
+    await unit.fill('kPa');
+    const runs = await analysisRuns();
+    await page.click('[data-testid="apply-import-0"]');
+    await waitForRunsAbove(runs);
+    expect(await page.textContent('[data-testid="columns-0"] tbody tr:nth-child(3) td:nth-child(5)')).toBe('1000');
+    expect(await page.textContent('[data-testid="columns-0"] tbody tr:nth-child(3) td:nth-child(7)')).toContain('your override');
+  });
+
   it('a large log shows the progress bar while it is read', async () => {
     // 600 000 rows (≈ 20 MB) of the same run repeated: several 4 MB chunks, so progress is reported.
     const body = run.text.split('\n').slice(3).filter(Boolean);

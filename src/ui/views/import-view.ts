@@ -48,7 +48,7 @@ function fileCard(app: App, index: number, report: ImportReport): HTMLElement {
       el('td', { class: 'mono', text: c.header || '(none)' }),
       el('td', {}, qSel),
       el('td', {}, unit),
-      el('td', { class: 'num', text: c.role === 'time' ? d.timeFormat : Number.isFinite(c.factorToSi) ? fmt(c.factorToSi, 6) : '—' }),
+      el('td', { class: 'num', text: c.role === 'time' ? d.timeFormat : Number.isFinite(c.factorToSi) ? String(Number(c.factorToSi.toPrecision(6))) : '—' }),
       el('td', { class: 'mono', text: c.channelName ?? (c.role === 'time' ? 'time_s' : '—') }),
       el('td', { class: 'small muted', text: `${RECOGNITION[c.quantityFrom] ?? c.quantityFrom} / ${RECOGNITION[c.unitFrom] ?? c.unitFrom}` }),
     );
