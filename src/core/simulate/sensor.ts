@@ -5,7 +5,11 @@
  * Everything random comes from a seeded generator: the same seed gives the same log, bit for bit.
  * The model is common practice for sensor data sheets (no single source); values are the user's.
  */
+import { InputError } from '../errors';
 import type { Rng } from '../stats';
+
+/** Most samples one simulated logger may write (memory: a few hundred MB at this size). */
+export const MAX_SAMPLES = 5_000_000;
 
 export interface SensorModel {
   /** First-order time constant of the sensor, s (0 = none). */
@@ -39,7 +43,10 @@ export const IDEAL_SENSOR: SensorModel = {
 
 /** Sample times of a logger: k/rate plus Gaussian jitter (σ = jitterS), clipped to ±0.45/rate so time stays increasing. */
 export function jitteredTimes(rateHz: number, durationS: number, jitterS: number, rng: Rng): Float64Array {
+  if (!(rateHz > 0 && Number.isFinite(rateHz))) throw new InputError('bad-sample-rate', `sample rate must be a positive number of Hz, got ${rateHz}`, 'e.g. 10');
+  if (!(durationS > 0 && Number.isFinite(durationS))) throw new InputError('bad-duration', `duration must be a positive number of seconds, got ${durationS}`, 'e.g. 120');
   const n = Math.floor(durationS * rateHz + 1e-9) + 1;
+  if (n > MAX_SAMPLES) throw new InputError('too-many-samples', `${n} samples per logger requested (${rateHz} Hz for ${durationS} s)`, `stay below ${MAX_SAMPLES}: lower the sample rate or the duration`);
   const t = new Float64Array(n);
   const cap = 0.45 / rateHz;
   for (let k = 0; k < n; k++) {

@@ -44,3 +44,25 @@ describe('buildNetwork', () => {
     expect(res.nodePressurePa.node![0]!).toBeLessThan(998.207 * 9.80665 * 0.1);
   });
 });
+
+describe('timeConstantsAt', () => {
+  it('timeConstantsAt(two-node ladder) gives τ = 1.80656 s and 0.276768 s (physics.md §4.4 check values)', () => {
+    const taus = timeConstantsAt(
+      {
+        nodes: [{ id: 'n1', complianceM3PerPa: 1e-13 }, { id: 'n2', complianceM3PerPa: 5e-14 }],
+        resistors: [
+          { id: 'r1', from: 'src', to: 'n1', resistancePaSPerM3: 2e13 },
+          { id: 'r2', from: 'n1', to: 'n2', resistancePaSPerM3: 1e13 },
+          { id: 'r3', from: 'n2', to: 'ground', resistancePaSPerM3: 3e13 },
+        ],
+        flowSources: [],
+        pressureSources: [{ id: 'src', drive: 'pressure' }],
+        heads: [],
+        ambientPressurePa: 101325,
+      },
+      ['pressure'],
+    );
+    expect(taus[0]).toBeCloseTo(1.80656, 5);
+    expect(taus[1]).toBeCloseTo(0.276768, 6);
+  });
+});
