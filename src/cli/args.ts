@@ -1,9 +1,11 @@
 /**
  * A small shared argument helper on top of node:util parseArgs: declared options (string, boolean,
- * repeated), positional arguments, number parsing, and generated option help. Every mistake throws
+ * repeated), positional arguments, numbers, numbers with units (to SI), and generated option help. Every mistake throws
  * UsageError (exit 2 with a pointer to --help).
  */
 import { parseArgs } from 'node:util';
+import { factorToSi } from '../core/units/convert';
+import { knownUnitSymbols, lookupUnit, type UnitKind } from '../core/units/lookup';
 import { UsageError } from './io';
 
 /** One option of a command. */
@@ -86,4 +88,25 @@ export function formatOptionHelp(specs: OptionSpecs): string {
   });
   const width = Math.max(...rows.map(([f]) => f.length));
   return rows.map(([f, d]) => `  ${f.padEnd(width)}  ${d}`).join('\n');
+}
+
+/**
+ * Reads a number with a unit, e.g. `50mbar`, `2.5 µL/min`, `30 s`, and returns it in SI (Pa, m³/s, s; heights
+ * in mm/cm of liquid as Pa with ρ = 998.2 kg/m³). `kinds` lists the acceptable kinds; a bare number is taken in
+ * `defaultUnit` when given, else refused.
+ */
+export function parseValueWithUnit(text: string, option: string, kinds: readonly UnitKind[], defaultUnit?: string): number {
+  const m = /^\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*(.*?)\s*$/.exec(text);
+  if (!m) throw new UsageError(`--${option} needs a number with a unit, e.g. ${exampleFor(kinds)}, not '${text}'`);
+  const unitText = m[2] || defaultUnit;
+  if (!unitText) throw new UsageError(`--${option} needs a unit, e.g. ${exampleFor(kinds)}`);
+  const found = lookupUnit(unitText);
+  if (!found || !kinds.includes(found.kind)) {
+    throw new UsageError(`--${option}: '${unitText}' is not a ${kinds.join(' or ')} unit Lagbench knows. Known: ${knownUnitSymbols(kinds).join(', ')}`);
+  }
+  return Number(m[1]) * factorToSi(found);
+}
+
+function exampleFor(kinds: readonly UnitKind[]): string {
+  return kinds.map((k) => ({ pressure: '50mbar', flow: '2.5uL/min', head: '20mm', time: '30s' })[k]).join(' or ');
 }
