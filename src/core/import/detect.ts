@@ -233,7 +233,13 @@ export function detectLayout(sample: string, final: boolean, options: ImportOpti
   let preambleEnd = firstData; // index in content of the first line not in the preamble
   const h = content[firstData - 1];
   if (h) {
-    const hf = fieldsOf(h.text, delimiter);
+    let hf = fieldsOf(h.text, delimiter);
+    if (hf.length === fieldCount - 1) {
+      // `2026-03-14 10:00:00.5  12.3` between runs of spaces: one header name over a date and a time field
+      const first = fieldsOf(dataLine.text, delimiter);
+      const k = first.findIndex((x, i) => textTimeKind(x) === 'date' && textTimeKind(first[i + 1] ?? '') === 'hms');
+      if (k >= 0 && k < hf.length) hf = [...hf.slice(0, k), 'Date', ...hf.slice(k)];
+    }
     if (hf.length === fieldCount || (fieldCount === 1 && hf.length === 1)) {
       headerCells = hf;
       headerLine = h.number;

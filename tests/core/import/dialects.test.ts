@@ -153,6 +153,14 @@ describe('parseLogText time formats', () => {
     expect(report.warnings.map((w) => w.code)).not.toContain('midnight-rollover');
   });
 
+  it('parseLogText(date and time separated by a space in a space-separated log) reads them as one time', () => {
+    const { recording, report } = parseLogText('Timestamp   Pressure[mbar]\n2026-03-14 10:00:00.000   1.5\n2026-03-14 10:00:00.250   1.6\n');
+    expect(report.dialect).toMatchObject({ delimiter: 'whitespace', timeFormat: 'clock', dateColumn: 1, timeColumn: 2 });
+    expect(Array.from(recording.timeS)).toEqual([0, 0.25]);
+    expect(recording.startEpochMs).toBe(Date.UTC(2026, 2, 14, 10, 0, 0));
+    expect(Array.from(recording.channels[0]!.values)).toEqual([150, 160]);
+  });
+
   it('parseLogText(ISO 8601 with Z, dot decimals) keeps the absolute start', () => {
     const { recording } = parseLogText('Timestamp,P [Pa]\n2026-03-14T09:00:00.000Z,1\n2026-03-14T09:00:00.010Z,2\n');
     expect(recording.startEpochMs).toBe(Date.UTC(2026, 2, 14, 9, 0, 0, 0));
