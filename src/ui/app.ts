@@ -199,6 +199,7 @@ export class App {
     (byId('btn-save-work') as HTMLButtonElement).disabled = s.files.length === 0;
     (byId('btn-export-report') as HTMLButtonElement).disabled = !s.analysis;
     byId<HTMLSelectElement>('setup-select').value = s.setup;
+    byId('setup-hint').textContent = s.setup === 'flow-driven' ? 'a pump sets the flow; pressure is the response' : 'a regulator or head sets the pressure; flow is the response';
     byId('chip-status').textContent = s.chip ? s.chip.name : 'none (optional)';
     byId('btn-chip-clear').hidden = !s.chip;
     byId('nav-import').classList.toggle('done', !!s.recording);

@@ -126,6 +126,7 @@ export function renderImportView(app: App, root: HTMLElement): void {
   if (!s.files.length) {
     root.append(emptyState('No log open yet', 'Drop a CSV/TSV/TXT log anywhere on this window, or open one. Two logs of one run (e.g. a pressure logger and a flow logger) can be opened together.',
       button('Open logs…', () => void app.openLogsDialog(), 'btn primary')));
+    root.append(el('p', { class: 'small muted' }, 'Keys: ', el('kbd', { text: 'Ctrl+O' }), ' open logs · ', el('kbd', { text: 'Ctrl+S' }), ' save work · ', el('kbd', { text: 'Ctrl+E' }), ' export report · ', el('kbd', { text: 'Alt+1' }), '…', el('kbd', { text: 'Alt+5' }), ' switch views · ', el('kbd', { text: 'Tab' }), ' moves through every control.'));
     return;
   }
   if (s.files.length > 1) root.append(mergePanel(app));
