@@ -168,6 +168,27 @@ describe.skipIf(!haveBrowser)('desktop renderer in Chromium', () => {
     await shot('04-step-moved');
   });
 
+  it('dragging a step marker with the mouse moves the step and refits', async () => {
+    await page.click('#nav-recording');
+    const canvas = page.locator('#view-recording [data-testid="recording-chart"]');
+    const box = await canvas.boundingBox();
+    if (!box) throw new Error('no chart');
+    const markers = JSON.parse((await canvas.getAttribute('data-markers-px')) ?? '[]') as number[];
+    const y = box.y + Number(await canvas.getAttribute('data-plot-mid-px'));
+    const x = box.x + (markers[2] as number);
+    const runs = await analysisRuns();
+    await page.mouse.move(x, y);
+    await page.mouse.down();
+    await page.mouse.move(x + 6, y, { steps: 3 });
+    await page.mouse.move(x + 12, y, { steps: 3 });
+    await page.mouse.up();
+    await waitForRunsAbove(runs);
+    const moved = parseFloat((await page.textContent('[data-testid="step-item-2"] .mono')) ?? '');
+    expect(moved).toBeGreaterThan((run.onsetsS[2] as number) + 2);
+    expect(moved).toBeLessThan(run.onsetsS[3] as number);
+    await expect(page.textContent('[data-testid="step-item-2"]')).resolves.toContain('edited');
+  });
+
   it('adding and deleting a step by time works from the keyboard', async () => {
     const runs = await analysisRuns();
     await page.fill('[data-testid="add-step-input"]', '100');

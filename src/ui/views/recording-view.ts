@@ -151,6 +151,9 @@ export function renderRecordingView(app: App, root: HTMLElement): void {
   zoomOpts.pan = { ...zoomOpts.pan, onPanComplete: ({ chart }) => refine(chart as Chart) };
   const chart = new Chart(canvas, cfg);
   app.keepCharts('recording', [chart]);
+  // Marker positions (CSS px in the canvas) for tests and assistive tooling.
+  canvas.dataset.markersPx = JSON.stringify(onsets.map((t) => Math.round(chart.scales.x?.getPixelForValue(t) ?? 0)));
+  canvas.dataset.plotMidPx = String(Math.round((chart.chartArea.top + chart.chartArea.bottom) / 2));
   canvas.dataset.xMin = String(chart.scales.x?.min ?? 0);
   canvas.dataset.xMax = String(chart.scales.x?.max ?? dur);
 
