@@ -38,6 +38,7 @@ const specs: OptionSpecs = {
   'source-lag': { type: 'string', valueName: '<s>', description: 'first-order lag of the pump or regulator, s (default 0)' },
   bubble: { type: 'string', valueName: '<volume>', description: 'extra trapped air at the compliant node, volume at 1 atm, e.g. "2 uL"' },
   'outlet-height': { type: 'string', valueName: '<h>', description: 'outlet liquid surface above the node, e.g. "10 cm" (hydrostatic back-pressure)' },
+  nodes: { type: 'string', valueName: '<n>', description: 'one (default: all compliance at one node) or two (upstream and chip compliance apart: a ladder)' },
   'flow-sensor': { type: 'string', valueName: '<where>', description: 'outlet (default), inlet or none' },
   'flow-out': { type: 'string', valueName: '<log>', description: 'write the flow on a second logger to this file (own rate and clock)' },
   'flow-rate': { type: 'string', valueName: '<Hz>', description: 'sample rate of the second logger (default: half of --sample-rate)' },
@@ -112,6 +113,8 @@ export const simulateCommand: Command = {
     if (!dialect) throw new UsageError(`unknown --dialect '${dialectName}'; use ${SIM_DIALECT_NAMES.join(', ')}`, 'simulate');
     const noise = (stringOption(values, 'noise') ?? 'typical') as NoiseLevel;
     if (!NOISE.includes(noise)) throw new UsageError(`unknown --noise '${noise}'; use ${NOISE.join(', ')}`, 'simulate');
+    const nodes = stringOption(values, 'nodes') ?? 'one';
+    if (nodes !== 'one' && nodes !== 'two') throw new UsageError(`unknown --nodes '${nodes}'; use one or two`, 'simulate');
     const flowSensor = stringOption(values, 'flow-sensor') ?? 'outlet';
     if (flowSensor !== 'outlet' && flowSensor !== 'inlet' && flowSensor !== 'none') throw new UsageError(`unknown --flow-sensor '${flowSensor}'; use outlet, inlet or none`, 'simulate');
     const seed = numberOption(values, 'seed') ?? 1;
@@ -143,6 +146,7 @@ export const simulateCommand: Command = {
       flowSensor,
       fileNames: flowOut ? [basename(outArg), basename(flowOut)] : [basename(outArg)],
       build: {
+        nodes,
         ...(sourceLag !== undefined ? { sourceLagS: sourceLag } : {}),
         ...(bubble !== undefined ? { extraGasAtAtmM3: bubble } : {}),
         ...(outletHeight !== undefined ? { outletHeightM: outletHeight } : {}),

@@ -7,6 +7,15 @@
  *   flow-driven:     pump ──▶ node (C) ── R_down (chip + downstream) ──▶ outlet
  *   pressure-driven: regulator (lag) ── R_up ── node (C) ── R_down ──▶ outlet
  *
+ * With `nodes: 'two'` the compliance of the upstream section (syringe, tubing) sits at its own node
+ * `inlet`, apart from the chip section's at `node` (a two-node ladder, physics.md §4.4):
+ *
+ *   flow-driven:     pump ──▶ inlet (C_up) ── R_up ── node (C_chip) ── R_down ──▶ outlet
+ *   pressure-driven: regulator ── R_up/2 ── inlet (C_up) ── R_up/2 ── node (C_chip) ── R_down ──▶ outlet
+ *
+ * (the upstream line's compliance is spread along R_up; putting it at the middle is the usual
+ * two-cell discretisation, physics.md §3.7). Extra trapped air goes to `node` (in the chip).
+ *
  * The outlet is at 0 gauge, or at the liquid head ρ·g·h of an outlet reservoir h above the node.
  */
 import type { ChipDescription } from '../chip/types';
@@ -27,6 +36,8 @@ export interface BuildOptions {
   outletHeightM?: number;
   /** Overrides the description's operating (gauge) pressure, Pa. */
   operatingPressurePa?: number;
+  /** 'one' (default): all counted compliance at one node, as predictNominal lumps it; 'two': upstream and chip apart. */
+  nodes?: 'one' | 'two';
 }
 
 export interface BuiltNetwork {
@@ -40,26 +51,34 @@ export interface BuiltNetwork {
   flowTarget: Probe['target'];
   /** Inlet flow (pressure-driven: through R_up; flow-driven: the pump). */
   inletFlowTarget: Probe['target'];
-  /** Linear (non-gas) compliance at the node, m³/Pa. */
+  /** Linear (non-gas) compliance of all nodes, m³/Pa. */
   linearComplianceM3PerPa: number;
-  /** Trapped gas at the node, volume at atmospheric pressure, m³. */
+  /** Trapped gas of all nodes, volume at atmospheric pressure, m³. */
   gasVolumeAtAtmM3: number;
 }
 
 /** Node, source and resistor ids used by buildNetwork. */
-export const IDS = { node: 'node', pump: 'pump', regulator: 'regulator', upstream: 'upstream', downstream: 'downstream', outlet: 'outlet' } as const;
+export const IDS = { node: 'node', inlet: 'inlet', pump: 'pump', regulator: 'regulator', supply: 'supply', upstream: 'upstream', downstream: 'downstream', outlet: 'outlet' } as const;
 
 export function buildNetwork(chip: ChipDescription, setup: Setup, options: BuildOptions = {}): BuiltNetwork {
   const nominal = predictNominal(chip, setup, options.operatingPressurePa === undefined ? {} : { operatingPressurePa: options.operatingPressurePa });
   const pAtm = nominal.ambientPressurePa;
   const pAbs = nominal.nodeAbsolutePressurePa;
+  const two = options.nodes === 'two';
   let cLin = 0;
   let vAtm = 0;
+  let cUp = 0;
+  let vUp = 0;
   for (const item of nominal.compliance.breakdown) {
     if (!item.counted) continue;
     // predictNominal gives a gas pocket as V/p_abs at the operating pressure (isothermal, physics.md §3.3):
     // so V = C·p_abs there, and at atmosphere V_atm = V·p_abs/p_atm (Boyle).
-    if (item.source === 'gas') vAtm += (item.complianceM3PerPa.nominal * pAbs * pAbs) / pAtm;
+    const upstream = two && item.section === 'upstream';
+    if (item.source === 'gas') {
+      const v = (item.complianceM3PerPa.nominal * pAbs * pAbs) / pAtm;
+      if (upstream) vUp += v;
+      else vAtm += v;
+    } else if (upstream) cUp += item.complianceM3PerPa.nominal;
     else cLin += item.complianceM3PerPa.nominal;
   }
   const extra = options.extraGasAtAtmM3 ?? 0;
@@ -67,6 +86,7 @@ export function buildNetwork(chip: ChipDescription, setup: Setup, options: Build
   vAtm += extra;
   const linearised = options.gas === 'linearised';
   const nodeC = linearised ? cLin + (vAtm * pAtm) / (pAbs * pAbs) : cLin;
+  const inletC = linearised ? cUp + (vUp * pAtm) / (pAbs * pAbs) : cUp;
   const rDown = nominal.resistance.downstreamPaSPerM3.nominal;
   const rUp = nominal.resistance.upstreamPaSPerM3.nominal;
   if (!(rDown > 0)) throw new InputError('no-chip-resistance', 'the chip and downstream sections have no resistance', 'describe at least one channel in "chip"', { file: chip.fileName });
@@ -84,14 +104,26 @@ export function buildNetwork(chip: ChipDescription, setup: Setup, options: Build
     heads: heightM !== 0 ? [{ id: IDS.outlet, heightM, densityKgPerM3: density, gravityMPerS2: STANDARD_GRAVITY }] : [],
     ambientPressurePa: pAtm,
   };
+  if (two) {
+    if (!(rUp > 0) || cUp + vUp <= 0) {
+      throw new InputError('no-upstream-node', 'two nodes need an upstream section with both resistance and compliance', 'describe the supply tubing in "upstream", or use one node', { file: chip.fileName });
+    }
+    network.nodes.unshift({ id: IDS.inlet, complianceM3PerPa: inletC, ...(linearised || vUp === 0 ? {} : { gasVolumeAtAtmM3: vUp }) });
+  }
   if (setup === 'flow-driven') {
-    network.flowSources.push({ id: IDS.pump, into: IDS.node, drive: 'flow', ...(lag > 0 ? { lagS: lag } : {}) });
+    network.flowSources.push({ id: IDS.pump, into: two ? IDS.inlet : IDS.node, drive: 'flow', ...(lag > 0 ? { lagS: lag } : {}) });
+    if (two) network.resistors.unshift({ id: IDS.upstream, from: IDS.inlet, to: IDS.node, resistancePaSPerM3: rUp });
   } else {
     if (!(rUp > 0)) {
       throw new InputError('no-upstream-resistance', 'pressure-driven set-up without resistance upstream of the node: the regulator would hold the node and nothing settles', 'add the supply tubing or sensor to "upstream" in the chip description', { file: chip.fileName });
     }
     network.pressureSources.push({ id: IDS.regulator, drive: 'pressure', ...(lag > 0 ? { lagS: lag } : {}) });
-    network.resistors.unshift({ id: IDS.upstream, from: IDS.regulator, to: IDS.node, resistancePaSPerM3: rUp });
+    if (two) {
+      network.resistors.unshift(
+        { id: IDS.supply, from: IDS.regulator, to: IDS.inlet, resistancePaSPerM3: rUp / 2 },
+        { id: IDS.upstream, from: IDS.inlet, to: IDS.node, resistancePaSPerM3: rUp / 2 },
+      );
+    } else network.resistors.unshift({ id: IDS.upstream, from: IDS.regulator, to: IDS.node, resistancePaSPerM3: rUp });
   }
   return {
     network,
@@ -100,8 +132,8 @@ export function buildNetwork(chip: ChipDescription, setup: Setup, options: Build
     nominal,
     pressureTarget: { kind: 'node', id: IDS.node },
     flowTarget: { kind: 'resistor', id: IDS.downstream },
-    inletFlowTarget: setup === 'flow-driven' ? { kind: 'source', id: IDS.pump } : { kind: 'resistor', id: IDS.upstream },
-    linearComplianceM3PerPa: cLin,
-    gasVolumeAtAtmM3: vAtm,
+    inletFlowTarget: setup === 'flow-driven' ? { kind: 'source', id: IDS.pump } : { kind: 'resistor', id: two ? IDS.supply : IDS.upstream },
+    linearComplianceM3PerPa: cLin + cUp,
+    gasVolumeAtAtmM3: vAtm + vUp,
   };
 }

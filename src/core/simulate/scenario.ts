@@ -62,7 +62,7 @@ export interface StepTruth {
   outlet_flow_after_m3_per_s: number;
   /** Small-signal time constants at the mean node pressure of the step, s (descending). */
   tau_s: number[];
-  /** Node compliance at the mean node pressure of the step, m³/Pa. */
+  /** Compliance of all nodes at the mean node pressures of the step, m³/Pa. */
   compliance_m3_per_Pa: number;
   /**
    * With trapped gas the compliance changes during the step: its values at the pressures before and
@@ -112,11 +112,21 @@ const sorted = (a: number, b: number): [number, number] => (a <= b ? [a, b] : [b
 
 const DEFAULT_START_MS = Date.UTC(2026, 2, 2, 9, 0, 0);
 
-/** Steady node pressure and outlet flow at a constant drive. */
-function steadyAt(net: Network, drive: string, quantity: 'flow' | 'pressure', value: number): { p: number; q: number } {
+/** Steady pressures (every node, and the sensed node as p) and outlet flow at a constant drive. */
+function steadyAt(net: Network, drive: string, quantity: 'flow' | 'pressure', value: number): { p: number; q: number; all: Record<string, number> } {
   const res = simulate(net, { channels: [{ name: drive, quantity, points: [{ timeS: 0, valueSI: value, rampS: 0 }] }] }, { timesS: Float64Array.of(0) });
-  return { p: (res.nodePressurePa[IDS.node] as Float64Array)[0] as number, q: (res.resistorFlowM3PerS[IDS.downstream] as Float64Array)[0] as number };
+  const all: Record<string, number> = {};
+  for (const [id, v] of Object.entries(res.nodePressurePa)) all[id] = v[0] as number;
+  return { p: all[IDS.node] as number, q: (res.resistorFlowM3PerS[IDS.downstream] as Float64Array)[0] as number, all };
 }
+
+/** Sum of the node compliances at the given node pressures, m³/Pa. */
+function totalCompliance(net: Network, pressures: Record<string, number>): number {
+  return net.nodes.reduce((sum, n) => sum + nodeComplianceAt(net, n.id, pressures[n.id] ?? 0), 0);
+}
+
+const meanOf = (a: Record<string, number>, b: Record<string, number>): Record<string, number> =>
+  Object.fromEntries(Object.keys(a).map((k) => [k, ((a[k] as number) + (b[k] as number)) / 2]));
 
 function sensorFor(level: NoiseLevel, span: number, noiseOverride: number | undefined, lagS: number | undefined): SensorModel {
   const l = LEVELS[level];
@@ -152,9 +162,9 @@ export function simulateScenario(chip: ChipDescription, program: Program, option
   const rUp = nominal.resistance.upstreamPaSPerM3.nominal;
   const rDown = nominal.resistance.downstreamPaSPerM3.nominal;
   const steps: StepTruth[] = drive.points.slice(1).map((pt, k) => {
-    const before = steady[k] as { p: number; q: number };
-    const after = steady[k + 1] as { p: number; q: number };
-    const mean = (before.p + after.p) / 2;
+    const before = steady[k] as ReturnType<typeof steadyAt>;
+    const after = steady[k + 1] as ReturnType<typeof steadyAt>;
+    const mean = meanOf(before.all, after.all);
     return {
       onset_s: pt.timeS,
       ramp_s: pt.rampS,
@@ -164,14 +174,14 @@ export function simulateScenario(chip: ChipDescription, program: Program, option
       node_pressure_after_Pa: after.p,
       outlet_flow_before_m3_per_s: before.q,
       outlet_flow_after_m3_per_s: after.q,
-      tau_s: timeConstantsAt(net, [built.drive], { [IDS.node]: mean }),
-      compliance_m3_per_Pa: nodeComplianceAt(net, IDS.node, mean),
-      compliance_range_m3_per_Pa: sorted(nodeComplianceAt(net, IDS.node, before.p), nodeComplianceAt(net, IDS.node, after.p)),
-      tau_range_s: sorted(timeConstantsAt(net, [built.drive], { [IDS.node]: before.p })[0] ?? 0, timeConstantsAt(net, [built.drive], { [IDS.node]: after.p })[0] ?? 0),
+      tau_s: timeConstantsAt(net, [built.drive], mean),
+      compliance_m3_per_Pa: totalCompliance(net, mean),
+      compliance_range_m3_per_Pa: sorted(totalCompliance(net, before.all), totalCompliance(net, after.all)),
+      tau_range_s: sorted(timeConstantsAt(net, [built.drive], before.all)[0] ?? 0, timeConstantsAt(net, [built.drive], after.all)[0] ?? 0),
       resistance_identified_Pa_s_per_m3: options.setup === 'flow-driven' ? rDown : rUp + rDown,
     };
   });
-  const tauOp = timeConstantsAt(net, [built.drive], { [IDS.node]: pOp });
+  const tauOp = timeConstantsAt(net, [built.drive], Object.fromEntries(net.nodes.map((n) => [n.id, pOp])));
   const slowest = Math.max(...tauOp.filter(Number.isFinite), ...steps.flatMap((s) => s.tau_s.filter(Number.isFinite)));
   const durationS = options.durationS ?? programEndS(program) + Math.max(10, 6 * slowest);
 

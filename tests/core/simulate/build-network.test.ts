@@ -66,3 +66,52 @@ describe('timeConstantsAt', () => {
     expect(taus[1]).toBeCloseTo(0.276768, 6);
   });
 });
+
+describe('buildNetwork(nodes: two)', () => {
+  const soft = parseChipDescription(readFileSync('sample-logs/chips/pdms-mixer-soft-tubing.json', 'utf8'), 'pdms-mixer-soft-tubing.json');
+
+  it('buildNetwork(two nodes) keeps the total compliance and gives the ladder τ of physics.md §4.4 (flow-source version)', () => {
+    const one = buildNetwork(soft, 'flow-driven', { gas: 'linearised' });
+    const two = buildNetwork(soft, 'flow-driven', { gas: 'linearised', nodes: 'two' });
+    const c = (b: typeof one): number => b.network.nodes.reduce((s, n) => s + n.complianceM3PerPa, 0);
+    expect(c(two) / c(one)).toBeCloseTo(1, 12);
+    const c1 = two.network.nodes.find((n) => n.id === 'inlet')!.complianceM3PerPa;
+    const c2 = two.network.nodes.find((n) => n.id === 'node')!.complianceM3PerPa;
+    const r2 = two.nominal.resistance.upstreamPaSPerM3.nominal;
+    const r3 = two.nominal.resistance.downstreamPaSPerM3.nominal;
+    // physics.md §4.4 with G1 = 0 (flow source): T = −[G2/C1 + (G2 + G3)/C2], D = 1/(R2 R3 C1 C2).
+    const T = -(1 / r2 / c1 + (1 / r2 + 1 / r3) / c2);
+    const D = 1 / (r2 * r3 * c1 * c2);
+    const expected = [(T + Math.sqrt(T * T - 4 * D)) / 2, (T - Math.sqrt(T * T - 4 * D)) / 2].map((l) => -1 / l);
+    const taus = timeConstantsAt(two.network, ['flow']);
+    expect(taus[0]! / expected[0]!).toBeCloseTo(1, 9);
+    expect(taus[1]! / expected[1]!).toBeCloseTo(1, 9);
+  });
+
+  it('buildNetwork(two nodes, pressure-driven) splits R_up around the inlet node: τ from physics.md §4.4', () => {
+    const chip = parseChipDescription(readFileSync('sample-logs/simulated/regulator-bench.chip.json', 'utf8'), 'regulator-bench.chip.json');
+    const two = buildNetwork(chip, 'pressure-driven', { nodes: 'two' });
+    const c1 = two.network.nodes.find((n) => n.id === 'inlet')!.complianceM3PerPa;
+    const c2 = two.network.nodes.find((n) => n.id === 'node')!.complianceM3PerPa;
+    const r1 = two.nominal.resistance.upstreamPaSPerM3.nominal / 2;
+    const r3 = two.nominal.resistance.downstreamPaSPerM3.nominal;
+    const [g1, g2, g3] = [1 / r1, 1 / r1, 1 / r3];
+    const T = -((g1 + g2) / c1 + (g2 + g3) / c2);
+    const D = (g1 * g2 + g1 * g3 + g2 * g3) / (c1 * c2);
+    const slow = -2 / (T + Math.sqrt(T * T - 4 * D));
+    expect(timeConstantsAt(two.network, ['pressure'])[0]! / slow).toBeCloseTo(1, 9);
+  });
+
+  it('simulate(two nodes) starts the chip-node pressure with zero slope after a step (physics.md §4.4)', () => {
+    const two = buildNetwork(soft, 'flow-driven', { gas: 'linearised', nodes: 'two' });
+    const q = 1.666667e-10; // 10 µL/min
+    const prog = { channels: [{ name: 'flow', quantity: 'flow' as const, points: [{ timeS: 0, valueSI: 0, rampS: 0 }, { timeS: 1, valueSI: q, rampS: 0 }] }] };
+    // The fast mode here is ≈ 21 µs (R_up·C_chip), so look within 0.2 µs of the step.
+    const res = simulate(two.network, prog, { timesS: Float64Array.from([1, 1 + 1e-7, 1 + 2e-7]) });
+    const p = res.nodePressurePa.node!;
+    const pIn = res.nodePressurePa.inlet!;
+    // The inlet rises linearly at first (Q/C1): p(2δ)/p(δ) = 2; the chip node quadratically (zero slope): 4.
+    expect((pIn[2]! - pIn[0]!) / (pIn[1]! - pIn[0]!)).toBeCloseTo(2, 1);
+    expect((p[2]! - p[0]!) / (p[1]! - p[0]!)).toBeCloseTo(4, 1);
+  });
+});
