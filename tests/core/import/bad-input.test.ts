@@ -2,7 +2,7 @@
 // asked to skip/sort/drop. Expected line numbers are counted by hand in each small log below.
 import { describe, expect, it } from 'vitest';
 import { InputError } from '../../../src/core/errors';
-import { parseLogText, type ImportOptions } from '../../../src/core/import/index';
+import { createLogParser, parseLogText, type ImportOptions } from '../../../src/core/import/index';
 
 function failure(text: string, options: ImportOptions = {}): InputError {
   try {
@@ -113,6 +113,22 @@ describe('parseLogText refuses bad input with a located message', () => {
     const { report } = parseLogText(text, { skipBadRows: true });
     expect(report.rows).toBe(3);
     expect(report.warnings.find((w) => w.code === 'skipped-bad-rows')?.count).toBe(2);
+  });
+
+  it('createLogParser(a bad value far into a streamed file) names the right line across chunk boundaries', () => {
+    // line 1 comment, line 2 header, data from line 3: the value on data row k (0-based) is on line k + 3
+    const rows = Array.from({ length: 30000 }, (_, k) => (k === 24999 ? `${k},bad` : `${k},${k % 10}`));
+    const text = `# streamed\r\nTime [s],P [Pa]\r\n${rows.join('\r\n')}\r\n`;
+    const parser = createLogParser({ sourceName: 'big.csv' });
+    let err: unknown;
+    try {
+      for (let i = 0; i < text.length; i += 9973) parser.push(text.slice(i, i + 9973));
+      parser.finish();
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(InputError);
+    expect((err as InputError).location).toEqual({ file: 'big.csv', line: 25002, column: 2 });
   });
 
   it('parseLogText(bad time value) names the time column', () => {
