@@ -22,6 +22,8 @@ export interface AppState {
   /** Start of the second log on the first log's time axis, s (null = align by absolute timestamps). */
   mergeOffsetS: number | null;
   recording: RecordingSummary | null;
+  /** Why the last import failed (shown with the options that can fix it). */
+  importError: string | null;
   overview: SeriesSet | null;
   setup: Setup;
   chip: OpenFile | null;
@@ -45,6 +47,7 @@ export function initialState(): AppState {
     importOptions: [],
     mergeOffsetS: null,
     recording: null,
+    importError: null,
     overview: null,
     setup: 'flow-driven',
     chip: null,

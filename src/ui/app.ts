@@ -242,6 +242,7 @@ export class App {
     const s = this.state;
     if (!s.files.length) return;
     s.recording = null;
+    s.importError = null;
     s.analysis = null;
     s.overview = null;
     s.steps = [];
@@ -262,6 +263,7 @@ export class App {
       } else await this.detect();
     } catch (err) {
       this.progress(null);
+      if (!s.recording) s.importError = errorText(err);
       this.status(errorText(err), true);
       this.render();
     }

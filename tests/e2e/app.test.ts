@@ -341,6 +341,19 @@ describe.skipIf(!haveBrowser)('desktop renderer in Chromium', () => {
     expect(await page.textContent('[data-testid="columns-0"] tbody tr:nth-child(3) td:nth-child(7)')).toContain('your override');
   });
 
+  it('a header-less log is refused with the reason, and reads once a sample rate is given', async () => {
+    await page.setInputFiles('#file-input-logs', join(process.cwd(), 'sample-logs', 'headerless-100Hz.txt'));
+    await page.click('#nav-import');
+    await page.waitForSelector('#view-import .notice.bad');
+    expect(await page.textContent('#view-import .notice.bad')).toContain('sample rate');
+    await page.fill('[data-testid="rate-0"]', '100');
+    await page.click('[data-testid="apply-import-0"]');
+    await page.waitForSelector('[data-testid="columns-0"]');
+    // 100 Hz (sample-logs/README.md): the mean rate shown is the rate given.
+    expect(await page.textContent('[data-testid="import-summary"]')).toMatch(/Mean rate\s*100(\.0+)? Hz/);
+    await shot('13-headerless-fixed');
+  });
+
   it('a large log shows the progress bar while it is read', async () => {
     // 600 000 rows (≈ 20 MB) of the same run repeated: several 4 MB chunks, so progress is reported.
     const body = run.text.split('\n').slice(3).filter(Boolean);

@@ -31,6 +31,8 @@ function fileCard(app: App, index: number, report: ImportReport): HTMLElement {
   const dec = select('Decimal sign', DECIMALS, opts.decimal ?? '', `decimal-${index}`);
   const tf = select('Time format', TIME_FORMATS, opts.timeFormat ?? '', `timeformat-${index}`);
   const skip = el('input', { type: 'checkbox', checked: !!opts.skipBadRows, id: `skip-${index}` });
+  const timeCol = select('Time column', [['', 'detect'], ...report.columns.map((c): [string, string] => [String(c.column), `${c.column}: ${c.header || '(no header)'}`])], opts.timeColumn === undefined ? '' : String(opts.timeColumn), `timecolumn-${index}`);
+  const rate = el('input', { type: 'number', step: 'any', min: '0', value: opts.sampleRateHz === undefined ? '' : String(opts.sampleRateHz), placeholder: 'only without time', 'aria-label': 'Sample rate (Hz) for a file without a time column', 'data-testid': `rate-${index}` });
 
   const colControls: Array<{ column: number; q: HTMLSelectElement; unit: HTMLInputElement }> = [];
   const rows = report.columns.map((c) => {
@@ -60,6 +62,8 @@ function fileCard(app: App, index: number, report: ImportReport): HTMLElement {
     if (dec.value) next.decimal = dec.value as '.' | ',';
     if (tf.value) next.timeFormat = tf.value as TimeFormat;
     if (skip.checked) next.skipBadRows = true;
+    if (timeCol.value) next.timeColumn = Number(timeCol.value);
+    if (rate.value !== '' && Number(rate.value) > 0) next.sampleRateHz = Number(rate.value);
     const cols: ColumnOverride[] = [];
     for (const cc of colControls) {
       const orig = report.columns.find((c) => c.column === cc.column);
@@ -91,6 +95,8 @@ function fileCard(app: App, index: number, report: ImportReport): HTMLElement {
       el('label', { class: 'field' }, el('span', { text: 'Delimiter' }), delim),
       el('label', { class: 'field' }, el('span', { text: 'Decimal sign' }), dec),
       el('label', { class: 'field' }, el('span', { text: 'Time format' }), tf),
+      el('label', { class: 'field' }, el('span', { text: 'Time column' }), timeCol),
+      el('label', { class: 'field' }, el('span', { text: 'Sample rate (Hz)' }), rate),
       el('label', { class: 'inline small', for: `skip-${index}` }, skip, 'Skip bad rows (counted)'),
     )),
     el('table', { 'data-testid': `columns-${index}` },
@@ -102,6 +108,40 @@ function fileCard(app: App, index: number, report: ImportReport): HTMLElement {
     report.warnings.length ? notice('warn', `${report.warnings.length} warning(s) while reading:`) : null,
     warningsList(report.warnings),
   );
+}
+
+/** When a file could not be read: the settings that can fix it (delimiter, decimal sign, time, sample rate). */
+function fixPanel(app: App, index: number): HTMLElement {
+  const s = app.state;
+  const file = s.files[index];
+  const opts: ImportOptions = { ...(s.importOptions[index] ?? {}) };
+  const delim = select('Delimiter', DELIMITERS, opts.delimiter ?? '', `delimiter-${index}`);
+  const dec = select('Decimal sign', DECIMALS, opts.decimal ?? '', `decimal-${index}`);
+  const tf = select('Time format', TIME_FORMATS, opts.timeFormat ?? '', `timeformat-${index}`);
+  const timeCol = el('input', { type: 'number', min: '1', step: '1', value: opts.timeColumn === undefined ? '' : String(opts.timeColumn), placeholder: 'detect', 'aria-label': 'Time column number', 'data-testid': `timecolumn-${index}` });
+  const rate = el('input', { type: 'number', step: 'any', min: '0', value: opts.sampleRateHz === undefined ? '' : String(opts.sampleRateHz), placeholder: 'only without time', 'aria-label': 'Sample rate (Hz) for a file without a time column', 'data-testid': `rate-${index}` });
+  const skip = el('input', { type: 'checkbox', checked: !!opts.skipBadRows, id: `skip-${index}` });
+  const apply = button('Apply and re-read', () => {
+    const next: ImportOptions = {};
+    if (delim.value) next.delimiter = delim.value as Delimiter;
+    if (dec.value) next.decimal = dec.value as '.' | ',';
+    if (tf.value) next.timeFormat = tf.value as TimeFormat;
+    if (timeCol.value !== '') next.timeColumn = Number(timeCol.value);
+    if (rate.value !== '' && Number(rate.value) > 0) next.sampleRateHz = Number(rate.value);
+    if (skip.checked) next.skipBadRows = true;
+    s.importOptions[index] = next;
+    void app.importFiles();
+  }, 'btn primary small', { 'data-testid': `apply-import-${index}` });
+  return el('section', { class: 'panel file-card', 'aria-label': `Reading options for ${file?.name ?? ''}` },
+    el('h3', { text: `${file?.name ?? ''}: reading options` }),
+    el('div', { class: 'dialect' },
+      el('label', { class: 'field' }, el('span', { text: 'Delimiter' }), delim),
+      el('label', { class: 'field' }, el('span', { text: 'Decimal sign' }), dec),
+      el('label', { class: 'field' }, el('span', { text: 'Time format' }), tf),
+      el('label', { class: 'field' }, el('span', { text: 'Time column (number)' }), timeCol),
+      el('label', { class: 'field' }, el('span', { text: 'Sample rate (Hz)' }), rate),
+      el('label', { class: 'inline small', for: `skip-${index}` }, skip, 'Skip bad rows (counted)')),
+    el('div', { class: 'inline' }, apply));
 }
 
 /** Two logs: aligned by their absolute timestamps, or by an offset the user gives. */
@@ -131,7 +171,10 @@ export function renderImportView(app: App, root: HTMLElement): void {
   }
   if (s.files.length > 1) root.append(mergePanel(app));
   if (!s.recording) {
-    root.append(notice('info', `Reading ${s.files.map((f) => f.name).join(', ')}… (or see the status bar for a problem)`));
+    if (s.importError) {
+      root.append(notice('bad', s.importError));
+      s.files.forEach((_, i) => root.append(fixPanel(app, i)));
+    } else root.append(notice('info', `Reading ${s.files.map((f) => f.name).join(', ')}…`));
     return;
   }
   const r = s.recording;
