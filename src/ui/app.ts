@@ -228,11 +228,12 @@ export class App {
     await this.openLogFiles(files);
   }
 
-  async openLogFiles(files: LoadedFile[], options: ImportOptions[] = [], keepSteps: WorkFile['steps'] = null): Promise<void> {
+  async openLogFiles(files: LoadedFile[], options: ImportOptions[] = [], keepSteps: WorkFile['steps'] = null, mergeOffsetS: number | null = null): Promise<void> {
     const open: OpenFile[] = [];
     for (const f of files) open.push({ ...f, sha256: await sha256Hex(f.bytes) });
     this.state.files = open;
     this.state.importOptions = files.map((_, i) => options[i] ?? {});
+    this.state.mergeOffsetS = mergeOffsetS;
     this.state.stepEdits = [];
     await this.importFiles(true, keepSteps);
   }
@@ -400,6 +401,7 @@ export class App {
       savedAt: new Date().toISOString(),
       inputs: s.files.map((f) => this.ref(f)),
       importOptions: s.importOptions,
+      mergeOffsetS: s.mergeOffsetS,
       setup: s.setup,
       chip: s.chip ? this.ref(s.chip) : null,
       fit: s.fit,
@@ -453,7 +455,7 @@ export class App {
         if (chip && (await sha256Hex(chip.bytes)) === work.chip.sha256) this.state.chip = { ...chip, sha256: work.chip.sha256 };
         else this.status(`The chip description ${work.chip.name} changed or is missing; load it again.`, true);
       } else if (work.chip) this.status(`This work used the chip description ${work.chip.name}; load it with "Load chip JSON…".`);
-      await this.openLogFiles(logs, work.importOptions, work.steps);
+      await this.openLogFiles(logs, work.importOptions, work.steps, work.mergeOffsetS);
       this.state.stepEdits = work.stepEdits;
       this.render();
     } catch (err) {

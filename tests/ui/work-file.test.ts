@@ -9,7 +9,7 @@ const hash = 'a'.repeat(64);
 const work: WorkFile = {
   format: 'lagbench-work', version: 1, savedAt: '2026-12-01T00:00:00Z',
   inputs: [{ path: '/d/run.csv', name: 'run.csv', sha256: hash, bytes: 10 }],
-  importOptions: [{ decimal: ',' }], setup: 'flow-driven', chip: null,
+  importOptions: [{ decimal: ',' }], mergeOffsetS: 1.5, setup: 'flow-driven', chip: null,
   fit: { terms: 'auto', deadTime: false, drift: false, robust: 'none' },
   steps: [{ onsetS: 12.5, origin: 'user', direction: 'up', drive: { channel: null, quantity: 'flow_setpoint', before: Number.NaN, after: Number.NaN } }],
   stepEdits: [{ action: 'add', atS: 12.5 }],
@@ -20,6 +20,7 @@ describe('work files', () => {
     const back = parseWork(serializeWork(work), 'w.json');
     expect(back.inputs).toEqual(work.inputs);
     expect(back.importOptions).toEqual([{ decimal: ',' }]);
+    expect(back.mergeOffsetS).toBe(1.5);
     expect(back.steps?.[0]?.onsetS).toBe(12.5);
     expect(Number.isNaN(back.steps?.[0]?.drive.before)).toBe(true);
     expect(back.stepEdits).toEqual([{ action: 'add', atS: 12.5 }]);

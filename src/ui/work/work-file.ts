@@ -24,6 +24,8 @@ export interface WorkFile {
   savedAt: string;
   inputs: WorkInput[];
   importOptions: ImportOptions[];
+  /** Start of the second log on the first log's time axis, s (null = by timestamps). */
+  mergeOffsetS: number | null;
   setup: Setup;
   chip: WorkInput | null;
   fit: FitSettings;
@@ -78,6 +80,7 @@ export function parseWork(text: string, name: string): WorkFile {
     savedAt: typeof o.savedAt === 'string' ? o.savedAt : '',
     inputs: o.inputs as WorkInput[],
     importOptions: Array.isArray(o.importOptions) ? (o.importOptions as ImportOptions[]) : [],
+    mergeOffsetS: typeof o.mergeOffsetS === 'number' && Number.isFinite(o.mergeOffsetS) ? o.mergeOffsetS : null,
     setup: o.setup as Setup,
     chip: (o.chip as WorkInput | null) ?? null,
     fit: (o.fit as FitSettings) ?? { terms: 'auto', deadTime: false, drift: false, robust: 'none' },
