@@ -50,7 +50,11 @@ export function analyzeRecording(recording: Recording, options: AnalyzeOptions =
   progress(0.1, 'fits');
 
   const maxPoints = options.maxFitPoints ?? DEFAULT_MAX_FIT_POINTS;
-  const windows = detection.steps.map((step) => cutWindow(recording.timeS, response.values, step, endS, maxPoints));
+  // A channel interpolated from a slower logger is fitted on its own samples: interpolated points are not
+  // independent, and treating them so would make the confidence intervals too narrow.
+  const fitTimeS = response.native?.timeS ?? recording.timeS;
+  const fitValues = response.native?.values ?? response.values;
+  const windows = detection.steps.map((step) => cutWindow(fitTimeS, fitValues, step, endS, maxPoints));
   const stepsJson: StepJson[] = [];
   const fits: (TransientFit | null)[] = [];
   for (const [i, step] of detection.steps.entries()) {
@@ -80,7 +84,7 @@ export function analyzeRecording(recording: Recording, options: AnalyzeOptions =
   const shared =
     options.sharedFits === false || !fitter.fitSharedTaus
       ? []
-      : sharedFits(detection, (step) => cutWindow(recording.timeS, response.values, step, endS, sharedPoints(maxPoints)), fits, options, fitter);
+      : sharedFits(detection, (step) => cutWindow(fitTimeS, fitValues, step, endS, sharedPoints(maxPoints)), fits, options, fitter);
   const inconclusive = stepsJson.filter((s) => s.inconclusive).length;
   const all: WarningJson[] = warnings.map(warningJson);
   if (inconclusive > 0) {

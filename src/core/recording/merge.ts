@@ -109,7 +109,8 @@ export function mergeRecordings(recordings: readonly Recording[], options: Merge
     for (const c of r.channels) {
       const values = k === base ? c.values : interpolateOnto(x, c.values, baseRec.timeS, Number.isNaN(gap) ? Number.POSITIVE_INFINITY : gap);
       if (k !== base && outside === 0) for (let i = 0; i < values.length; i++) if (Number.isNaN(values[i] as number) && !Number.isNaN(c.values[0] as number)) outside++;
-      channels.push({ ...c, values, sourceIndex: c.sourceIndex + sourceOffset });
+      const native = k === base ? c.native : { timeS: x, values: c.values };
+      channels.push({ ...c, values, sourceIndex: c.sourceIndex + sourceOffset, ...(native ? { native } : {}) });
     }
     if (k !== base) {
       if (x.length === 0 || (x[x.length - 1] as number) < (baseRec.timeS[0] as number) || (x[0] as number) > (baseRec.timeS[baseRec.timeS.length - 1] as number)) {

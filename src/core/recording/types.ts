@@ -36,6 +36,12 @@ export interface Channel {
   values: Float64Array;
   /** Which input file it came from (index into Recording.sources). */
   sourceIndex: number;
+  /**
+   * The channel's own samples, present when `values` were interpolated from a slower log onto the
+   * recording's time base (merge). `timeS` is on the recording's axis. Interpolated samples are not
+   * independent measurements, so fits use these instead, or their error bars would be too narrow.
+   */
+  native?: { timeS: Float64Array; values: Float64Array };
 }
 
 /** A whole imported run on one time base. */
