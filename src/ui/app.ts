@@ -182,6 +182,10 @@ export class App {
     for (const c of this.charts.get(view) ?? []) c.destroy();
     this.charts.set(view, []);
     const root = byId(`view-${view}`);
+    // Re-rendering replaces the view's elements: keep keyboard focus (and a half-typed value) where it was.
+    const active = document.activeElement instanceof HTMLElement && root.contains(document.activeElement) ? document.activeElement : null;
+    const key = active ? (active.id ? `#${active.id}` : active.dataset.testid ? `[data-testid="${active.dataset.testid}"]` : null) : null;
+    const typed = active instanceof HTMLInputElement && active.type !== 'checkbox' ? active.value : null;
     const renderers: Record<ViewName, (app: App, root: HTMLElement) => void> = {
       import: renderImportView,
       recording: renderRecordingView,
@@ -190,6 +194,13 @@ export class App {
       report: renderReportView,
     };
     renderers[view](this, root);
+    if (key && !(document.activeElement instanceof HTMLElement && root.contains(document.activeElement) && document.activeElement !== document.body)) {
+      const again = root.querySelector<HTMLElement>(key);
+      if (again) {
+        again.focus();
+        if (typed !== null && again instanceof HTMLInputElement && again.value === '') again.value = typed;
+      }
+    }
     this.renderChrome();
   }
 

@@ -88,6 +88,7 @@ export function renderRecordingView(app: App, root: HTMLElement): void {
       app.status('Type the time of the new step in seconds.', true);
       return;
     }
+    addInput.value = '';
     app.editSteps('add', null, t);
   }, 'btn small', { 'data-testid': 'add-step' });
   addInput.addEventListener('keydown', (e) => {
