@@ -17,7 +17,9 @@
  *      system (first order, physics.md §4.1: t_x = −τ·ln(1 − x), so the ratio is ln 5 / ln 1.8 = 2.74;
  *      two equal lags, 1 − (1 + t/τ)·e^{−t/τ}: 1.93; three equal lags: 1.68 — derivations); onset =
  *      last sample still within noise of the old level, plus one;
- *    - otherwise (a straight line gives 1.0): a ramp, reported and never fitted;
+ *    - otherwise (a straight line gives 1.0): a ramp, reported and never fitted; it starts where its
+ *      10→90 % line, extended back, leaves the plateau held before it (levels of a change are taken
+ *      only from samples before the detector first saw it, regionStart − L, never from mid-ramp);
  * 6. both levels must hold for the dwell: a step closer than the dwell to the previous or next change
  *    (or to the start or end) is dropped; the reported levels are the medians of the dwell right before
  *    the onset (its last quarter for a gradual step, whose predecessor may still be creeping) and of the
@@ -59,6 +61,8 @@ export const SETTLING_SHAPE_RATIO = 1.5;
 
 interface Candidate {
   peak: number;
+  /** First index where |D| reached minStep/2: samples before regionStart − L precede this change. */
+  regionStart: number;
   regionEnd: number;
   sign: 1 | -1;
 }
@@ -113,9 +117,12 @@ export function findLevelChanges(timeS: Float64Array, values: ArrayLike<number>,
     // Provisional levels from the dwell before and after the candidate, kept clear of the neighbours.
     const guardBefore = prev ? Math.min(L, Math.floor((cand.peak - prev.peak) / 4)) : L;
     const guardAfter = next ? Math.min(L, Math.floor((next.peak - cand.peak) / 4)) : L;
-    const beforeHi = cand.peak - guardBefore;
-    const beforeLo = Math.max(0, cand.peak - guardBefore - L, prev ? prev.peak + guardBefore : 0);
-    const afterHi = next ? next.peak - guardAfter : n;
+    // D(i) is 0 until its after-window reaches the change, so samples before regionStart − L are
+    // untouched by it (a ramp's peak sits mid-ramp: one guard back from the peak is still on the ramp).
+    const prevBound = prev ? prev.peak + guardBefore : 0;
+    const beforeHi = Math.max(Math.min(cand.peak - guardBefore, cand.regionStart - L), prevBound + 3);
+    const beforeLo = Math.max(0, beforeHi - L, prevBound);
+    const afterHi = next ? Math.max(Math.min(next.peak - guardAfter, next.regionStart - L), cand.peak + guardAfter + 3) : n;
     const afterLo = Math.max(cand.peak + guardAfter, afterHi - L);
     if (beforeHi - beforeLo < 3 || afterHi - afterLo < 3) continue;
     // The old level right before the change: the last quarter of the dwell (a preceding settling
@@ -150,6 +157,9 @@ export function findLevelChanges(timeS: Float64Array, values: ArrayLike<number>,
     };
     let timing = timeChange(before);
     if (timing.i10 < 0) continue;
+    /** Timing against the plateau before the change (regionStart-bounded), kept for a ramp. */
+    const plateauTiming = timing;
+    const plateauLevel = before;
     // A gradual change: re-take the old level just before the estimated onset (twice), since the first
     // estimate may sit on the tail of an earlier transition.
     for (let pass = 0; pass < 2 && timing.i90 - timing.i10 > timing.k + 2; pass++) {
@@ -177,8 +187,12 @@ export function findLevelChanges(timeS: Float64Array, values: ArrayLike<number>,
     } else {
       let end = i90;
       while (end < searchTo - 1 && progress(end) < 1 - band / absDelta) end++;
-      const startIndex = lastAtOldLevel();
-      ramps.push({ startS: timeS[startIndex] as number, endS: timeS[end] as number, before, after });
+      // A ramp leaves its plateau at a constant rate: extrapolate the 10→90 % line back to 0 % of the
+      // change relative to the plateau held before it (walking back to within a noise band instead
+      // would start it late, and the step before it would then take part of the ramp as its level).
+      const p = plateauTiming;
+      const startIndex = Math.max(searchFrom, Math.min(p.i10, Math.round(p.i10 - (p.i90 - p.i10) / 8)));
+      ramps.push({ startS: timeS[startIndex] as number, endS: timeS[end] as number, before: plateauLevel, after });
       events.push({ startIndex, endIndex: end, step: null });
     }
   }
@@ -242,11 +256,12 @@ function findCandidates(S: Float64Array, n: number, L: number, minStep: number):
   let sign: 1 | -1 = 1;
   let best = 0;
   let peak = 0;
+  let regionStart = 0;
   for (let i = L; i <= n - L; i++) {
     const d = ((S[i + L] as number) - 2 * (S[i] as number) + (S[i - L] as number)) / L;
     if (inRegion) {
       if (sign * d < leave) {
-        out.push({ peak, regionEnd: i, sign });
+        out.push({ peak, regionStart, regionEnd: i, sign });
         inRegion = false;
       } else if (sign * d > best) {
         best = sign * d;
@@ -258,9 +273,10 @@ function findCandidates(S: Float64Array, n: number, L: number, minStep: number):
       sign = d > 0 ? 1 : -1;
       best = Math.abs(d);
       peak = i;
+      regionStart = i;
     }
   }
-  if (inRegion) out.push({ peak, regionEnd: n - L, sign });
+  if (inRegion) out.push({ peak, regionStart, regionEnd: n - L, sign });
   return out;
 }
 

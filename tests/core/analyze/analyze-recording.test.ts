@@ -173,3 +173,33 @@ describe('analyzeRecording', () => {
     for (let i = 1; i < fractions.length; i++) expect(fractions[i]!).toBeGreaterThanOrEqual(fractions[i - 1]!);
   });
 });
+
+describe('analyzeRecording with a ramp after a step', () => {
+  it('analyzeRecording(step at 45 s then a ramp at 75 s) fits the step to the ramp start against the held plateau', () => {
+    // Programme: 2 → 5 µL/min at 15 s, 5 → 10 at 45 s, ramp 10 → 5 over 75–95 s, step to 2 at 130 s
+    // (the programme's own setpoints are the truth); R = 6e13 Pa·s/m³, τ = 3 s: the 30 s window is 10 τ.
+    const rec = syntheticLog({
+      ...flowDriven,
+      durationS: 170,
+      program: [
+        { timeS: 0, value: 2 * UL_PER_MIN },
+        { timeS: 15.01, value: 5 * UL_PER_MIN },
+        { timeS: 45.01, value: 10 * UL_PER_MIN },
+        { timeS: 130.01, value: 2 * UL_PER_MIN },
+      ],
+      ramps: [{ startS: 75, endS: 95, from: 10 * UL_PER_MIN, to: 5 * UL_PER_MIN }],
+      seed: 41,
+    });
+    const a = analyzeRecording(rec, { fit: { terms: 1 } }, defaultFitter);
+    const s = a.steps.find((x) => Math.abs(x.start_s - 45.02) < 0.05)!;
+    expect(s).toBeDefined();
+    expect(s.drive.after! / UL_PER_MIN).toBeCloseTo(10, 9);
+    // The window ends where the ramp leaves 10 µL/min (75 s, to the 20 ms sample).
+    expect(Math.abs(s.end_s - 75)).toBeLessThan(0.03);
+    // y∞ = R·Q (closed form §4.2) inside its CI; the drive change is 5 µL/min, so R = Δy∞/ΔQ is unbiased.
+    const plateau = R * 10 * UL_PER_MIN;
+    expect(s.y_inf_ci95[0]!).toBeLessThan(plateau);
+    expect(s.y_inf_ci95[1]!).toBeGreaterThan(plateau);
+    expect(s.fit!.flags.map((f) => f.code)).not.toContain('residual-structure');
+  });
+});

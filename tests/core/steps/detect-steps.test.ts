@@ -213,3 +213,49 @@ describe('detectSteps', () => {
     expect(d.warnings.map((w) => w.code)).toEqual(['too-few-samples']);
   });
 });
+
+describe('detectSteps with a ramp right after a step', () => {
+  // Programme: 2 → 5 µL/min at 15 s, 5 → 10 at 45 s, then a ramp 10 → 5 over 75–95 s, a step to 2 at 120 s.
+  // Source: the programme's own setpoints (the plateau held from 45 s to 75 s is 10 µL/min exactly).
+  const rampSpec: SyntheticLogSpec = {
+    ...base,
+    durationS: 160,
+    program: [
+      { timeS: 0, value: 2 * UL_PER_MIN },
+      { timeS: 15.005, value: 5 * UL_PER_MIN },
+      { timeS: 45.005, value: 10 * UL_PER_MIN },
+      { timeS: 120.005, value: 2 * UL_PER_MIN },
+    ],
+    ramps: [{ startS: 75, endS: 95, from: 10 * UL_PER_MIN, to: 5 * UL_PER_MIN }],
+    seed: 31,
+  };
+
+  it('detectSteps(clean setpoint, step then ramp) takes the after-level from the plateau before the ramp and ends the window at the ramp start', () => {
+    const d = detectSteps(syntheticLog(rampSpec));
+    const step = d.steps.find((s) => Math.abs(s.onsetS - 45.01) < 0.02);
+    expect(step).toBeDefined();
+    expect(step!.drive.after / UL_PER_MIN).toBeCloseTo(10, 9);
+    expect(d.ramps).toHaveLength(1);
+    // The ramp leaves 10 µL/min at 75 s: the first sample below it is 75.01 s at 100 Hz.
+    expect(d.ramps[0]!.startS).toBeGreaterThan(74.9);
+    expect(d.ramps[0]!.startS).toBeLessThan(75.1);
+    expect(d.ramps[0]!.before / UL_PER_MIN).toBeCloseTo(10, 9);
+    expect(step!.windowEndS).toBeCloseTo(d.ramps[0]!.startS, 9);
+    expect(d.steps.map((s) => s.onsetS)).toEqual([15.01, 45.01, 120.01].map((t) => expect.closeTo(t, 6)));
+  });
+
+  it('detectSteps(noisy measured flow, step then a 3 s ramp) gives the plateau level within noise', () => {
+    // A 3 s ramp: on a noisy drive the detector sees a ramp only when it changes by ≥ minStep/2 (here 8σ/2 =
+    // 1 µL/min) within one dwell (1 s); the 20 s ramp above changes by 0.25 µL/min per dwell.
+    const spec: SyntheticLogSpec = { ...rampSpec, driveQuantity: 'flow', driveNoise: 0.25 * UL_PER_MIN, seed: 32 };
+    spec.ramps = [{ startS: 75, endS: 78, from: 10 * UL_PER_MIN, to: 5 * UL_PER_MIN }];
+    const d = detectSteps(syntheticLog(spec), { setup: 'flow-driven' });
+    const step = d.steps.find((s) => Math.abs(s.onsetS - 45.01) < 0.05);
+    expect(step).toBeDefined();
+    // Median of ≥ 100 samples: SE ≈ 1.25·0.25/√100 ≈ 0.03 µL/min; allow 0.1 (as above).
+    expect(Math.abs(step!.drive.after / UL_PER_MIN - 10)).toBeLessThan(0.1);
+    expect(d.ramps).toHaveLength(1);
+    expect(Math.abs(d.ramps[0]!.startS - 75)).toBeLessThan(1);
+    expect(step!.windowEndS).toBeLessThan(75.5);
+  });
+});
