@@ -142,6 +142,12 @@ describe.skipIf(!haveBrowser)('desktop renderer in Chromium', () => {
     await page.click('[data-testid="reset-zoom"]');
     const span = await page.$eval('[data-testid="recording-chart"]', (c) => Number((c as HTMLCanvasElement).dataset.xMax) - Number((c as HTMLCanvasElement).dataset.xMin));
     expect(span).toBeCloseTo(390, 6);
+    // Late zoom callbacks of the replaced chart must not bring the zoom back.
+    await page.waitForTimeout(600);
+    await page.click('#nav-steps');
+    await page.click('#nav-recording');
+    const after = await page.$eval('#view-recording [data-testid="recording-chart"]', (c) => Number((c as HTMLCanvasElement).dataset.xMax) - Number((c as HTMLCanvasElement).dataset.xMin));
+    expect(after).toBeCloseTo(390, 6);
   });
 
   it('moving a step with the keyboard refits it', async () => {

@@ -17,12 +17,15 @@ import { button, canvasBox, caution, emptyState, notice, viewHead, warningsList 
 let zoom: { min: number; max: number } | null = null;
 let zoomedSeries: SeriesSet | null = null;
 let focusList = false;
+/** The chart on screen; late zoom callbacks from a replaced chart are ignored. */
+let currentChart: Chart | null = null;
 
 export function renderRecordingView(app: App, root: HTMLElement): void {
   clear(root);
   const s = app.state;
   root.append(viewHead('h-recording', 'Recording & steps', 'The detected steps are marked S1, S2 … Drag a marker, or select a step in the list and use the keys, to correct them; every change refits.'));
   if (!s.recording || !s.overview) {
+    currentChart = null;
     zoom = null;
     zoomedSeries = null;
     root.append(emptyState('Nothing to show yet', 'Open a log first.', button('Open logs…', () => void app.openLogsDialog(), 'btn primary')));
@@ -133,11 +136,12 @@ export function renderRecordingView(app: App, root: HTMLElement): void {
   xScale.max = zoom?.max ?? dur;
   const refine = (c: Chart): void => {
     const x = c.scales.x;
-    if (!x) return;
+    if (!x || c !== currentChart) return;
     zoom = { min: x.min, max: x.max };
     canvas.dataset.xMin = String(x.min);
     canvas.dataset.xMax = String(x.max);
     void app.worker.request('series', { fromS: x.min, toS: x.max, maxPoints: 4000 }).then((fresh) => {
+      if (c !== currentChart) return;
       zoomedSeries = fresh;
       const next = recordingConfig(fresh, rec.channels, onsets, s.selectedStep, pageColors(), true);
       c.data.datasets.forEach((ds, k) => {
@@ -151,6 +155,7 @@ export function renderRecordingView(app: App, root: HTMLElement): void {
   zoomOpts.zoom = { ...zoomOpts.zoom, onZoomComplete: ({ chart }) => refine(chart as Chart) };
   zoomOpts.pan = { ...zoomOpts.pan, onPanComplete: ({ chart }) => refine(chart as Chart) };
   const chart = new Chart(canvas, cfg);
+  currentChart = chart;
   app.keepCharts('recording', [chart]);
   // Marker positions (CSS px in the canvas) for tests and assistive tooling.
   canvas.dataset.markersPx = JSON.stringify(onsets.map((t) => Math.round(chart.scales.x?.getPixelForValue(t) ?? 0)));

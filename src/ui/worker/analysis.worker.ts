@@ -15,6 +15,8 @@ import type { TransientData, TransientFit } from '../../core/fit/types';
 import { analyzeRecording } from '../../core/analyze/analyze';
 import { capabilitiesOfPhysics, runPhysics } from './physics-bridge';
 import { decimateMinMax, lowerBound } from './decimate';
+import { runWhatIf } from './whatif-bridge';
+import { analysedChip, rememberAnalysis } from './qc-bridge';
 import type { AnalysisView, Capabilities, RecordingSummary, SeriesSet, StepFitView, StepsResult, WorkerRequest, WorkerResponse } from './protocol';
 
 const ctx = self as unknown as { postMessage(msg: WorkerResponse, transfer?: Transferable[]): void; onmessage: ((ev: MessageEvent<WorkerRequest>) => void) | null };
@@ -137,6 +139,7 @@ function analyze(req: Extract<WorkerRequest, { type: 'analyze' }>, progress: (f:
   );
   progress(0.85, 'Physics');
   const physics = runPhysics(json, recording, req.setup, req.chipText, req.chipName);
+  rememberAnalysis(physics.json, recording);
   const fits: StepFitView[] = [];
   let call = 0;
   physics.json.steps.forEach((sj, i) => {
@@ -216,6 +219,10 @@ function handle(req: WorkerRequest): { result: unknown; transfer?: Transferable[
     }
     case 'analyze':
       return { result: analyze(req, progress) };
+    case 'whatif':
+      return { result: runWhatIf(req) };
+    case 'qc-chip':
+      return { result: analysedChip(req.chipId) };
     default:
       throw new Error('unknown request');
   }

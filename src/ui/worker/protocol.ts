@@ -8,6 +8,8 @@ import type { ImportOptions, ImportReport } from '../../core/import/types';
 import type { Quantity } from '../../core/recording/types';
 import type { Setup, Step } from '../../core/steps/types';
 import type { TransientFit } from '../../core/fit/types';
+import type { AnalysedChip } from '../../report/chip-input';
+import type { WhatIfRequest, WhatIfView } from './whatif-protocol';
 
 /** Which core pieces the worker could load (a missing piece is shown as "not available yet"). */
 export interface Capabilities {
@@ -151,7 +153,9 @@ export type WorkerRequest =
   | { id: number; type: 'import'; files: LogBytes[]; options: ImportOptions[]; mergeOffsetS: number | null }
   | { id: number; type: 'series'; fromS: number | null; toS: number | null; maxPoints: number }
   | { id: number; type: 'detect'; setup: Setup }
-  | { id: number; type: 'analyze'; setup: Setup; steps: Step[]; chipText: string | null; chipName: string | null; fit: FitSettings; stepIndices: number[] | null };
+  | { id: number; type: 'analyze'; setup: Setup; steps: Step[]; chipText: string | null; chipName: string | null; fit: FitSettings; stepIndices: number[] | null }
+  | ({ id: number; type: 'whatif' } & WhatIfRequest)
+  | { id: number; type: 'qc-chip'; chipId: string };
 
 export interface WorkerResults {
   capabilities: Capabilities;
@@ -159,6 +163,8 @@ export interface WorkerResults {
   series: SeriesSet;
   detect: StepsResult;
   analyze: AnalysisView;
+  whatif: WhatIfView;
+  'qc-chip': AnalysedChip & { setup: string };
 }
 
 export type WorkerResponse =
