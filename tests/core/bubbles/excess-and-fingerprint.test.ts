@@ -59,6 +59,7 @@ describe('pressureFingerprint', () => {
   const levels = [5e3, 5e3, 50e3, 50e3, 150e3, 150e3, 300e3, 300e3]; // gauge Pa, 4 levels × 2 steps
 
   it('pressureFingerprint recovers an exact V_atm and C_rigid from noise-free compliances', () => {
+    // Expected: the V_atm and C_rigid the data were generated from (Boyle model above, §3.3).
     const pts = fingerprintData(2e-9, 3e-14, levels, 1, 0).map((p) => ({ ...p, standardError: 1e-18 }));
     const out = pressureFingerprint(pts, { ambientPressurePa: ATM });
     expect(out.volumeM3AtAtm! / 2e-9).toBeCloseTo(1, 8);
@@ -73,6 +74,7 @@ describe('pressureFingerprint', () => {
       if (lo <= 2e-9 && 2e-9 <= hi) covered++;
       expect(out.evidenceOfGas).toBe(true);
     }
+    // Common practice, no source: with true 95 % coverage P(≥ 18 of 20) = 0.92 (binomial, scipy.stats.binom).
     expect(covered).toBeGreaterThanOrEqual(18);
   });
 
@@ -83,10 +85,12 @@ describe('pressureFingerprint', () => {
       if (out.evidenceOfGas) claims++;
       else expect(out.statement).toMatch(/^No evidence of trapped gas/);
     }
-    expect(claims).toBeLessThanOrEqual(2); // a 95 % one-sided-ish test: a false claim in ≤ 2/20 runs
+    // A 95 % test: a false claim in ≤ 2/20 runs; P(≤ 2 of 20) = 0.92 at a 5 % false-claim rate (binomial, scipy.stats.binom).
+    expect(claims).toBeLessThanOrEqual(2);
   });
 
   it('pressureFingerprint is inconclusive with fewer than 3 steps or a single pressure level', () => {
+    // Derivation: C = C_rigid + V·p_atm/p² has 2 unknowns; 3 steps at ≥ 2 distinct levels leave 1 dof for a CI.
     const two = pressureFingerprint(fingerprintData(2e-9, 3e-14, [5e3, 300e3], 1));
     expect(two.volumeM3AtAtm).toBeNull();
     expect(two.statement).toMatch(/at least 3/);
@@ -120,6 +124,7 @@ describe('linearTrend', () => {
   });
 
   it('linearTrend is inconclusive with two points', () => {
+    // Derivation: a line through 2 points has n − 2 = 0 residual degrees of freedom, so no slope CI exists.
     expect(linearTrend([{ timeS: 0, value: 1 }, { timeS: 1, value: 2 }]).direction).toBe('inconclusive');
   });
 });

@@ -19,6 +19,7 @@ describe('gas compliance (physics.md §3.3)', () => {
   });
 
   it('isothermalVolumeFromCompliance inverts both checks back to 10 µL', () => {
+    // Inverse of the §3.3 check values [N] (V = C·p isothermal, V = γ·C·p adiabatic, γ = 1.4).
     expect(isothermalVolumeFromCompliance(9.869e-14, { pressureAbsPa: ATM }) / 10e-9).toBeCloseTo(1, 4);
     expect(adiabaticVolumeFromCompliance(7.049e-14, { pressureAbsPa: ATM }) / 10e-9).toBeCloseTo(1, 3);
   });

@@ -69,7 +69,7 @@ describe('addPhysics on analyzeRecording results', () => {
   });
 
   it('addPhysics finds R_up from the inlet jump of a pressure-driven log (§4.3) and C inside its CI', () => {
-    const [R1, R2, C] = [1e13, 2e13, 1e-13]; // τ = 0.6667 s (§4.3 check value)
+    const [R1, R2, C] = [1e13, 2e13, 1e-13]; // τ = 0.6667 s (physics.md §4.3 check value [N])
     const tau = (C * R1 * R2) / (R1 + R2);
     const times = [0, 8, 16, 24];
     const levels = [0, 3000, 6000, 2000]; // Pa
@@ -209,7 +209,8 @@ describe('addPhysics on analyzeRecording results', () => {
     const rec = repeatedLog((k) => 1e-13 * (1 - 0.04 * k), 8);
     const out = addPhysics(analyzeRecording(rec, { fit: { terms: 1 } }, defaultFitter), rec, { ambientPressurePa: ATM });
     expect(out.compliance_trend?.direction).toBe('falling');
-    // up and down steps differ by ~1.5 kPa in mean pressure, within the 2 % same-level band: all 10 count
+    // up and down steps differ by ~1.5 kPa in mean pressure, within the 2 % same-level band (a rule of our own,
+    // common practice, no source): all 10 count
     expect(out.compliance_trend?.points).toBe(10);
   });
 
@@ -260,6 +261,7 @@ describe('addPhysics on analyzeRecording results', () => {
   }
 
   it('addPhysics separates 1 µL of trapped air from wall compliance by the pressure fingerprint', () => {
+    // Expected: the V_atm = 1 µL and C_rigid = 2e-14 m³/Pa the log was generated from (RK4 of the Boyle-loaded node above).
     const rec = gasLog(1e-9, 3);
     const out = addPhysics(analyzeRecording(rec, { fit: { terms: 1 } }, defaultFitter), rec, { ambientPressurePa: ATM });
     const air = out.trapped_air!;

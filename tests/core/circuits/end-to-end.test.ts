@@ -37,13 +37,14 @@ describe('circuits end to end with fitTransient', () => {
       if (contains(out.complianceM3PerPa, C)) cIn++;
       expect(out.complianceM3PerPa!.inconclusive).toBe(false);
     }
+    // Coverage bound: common practice, no source; P(≥ 17 of 20) = 0.984 at true 95 % coverage (binomial, scipy.stats.binom).
     expect(rIn).toBeGreaterThanOrEqual(17);
     expect(cIn).toBeGreaterThanOrEqual(17);
   });
 
   it('estimatePressureDriven (outlet sensor, R_up given) CIs contain R_total and C of the §4.3 circuit', () => {
     const [R1, R2, C, dp] = [1e13, 2e13, 1e-13, 3000];
-    const tau = (C * R1 * R2) / (R1 + R2); // 0.6667 s (§4.3 check value)
+    const tau = (C * R1 * R2) / (R1 + R2); // 0.6667 s (physics.md §4.3 check value [N])
     const qInf = dp / (R1 + R2);
     let rIn = 0;
     let cIn = 0;
@@ -60,7 +61,7 @@ describe('circuits end to end with fitTransient', () => {
       if (contains(out.resistancePaSPerM3, R1 + R2)) rIn++;
       if (contains(out.complianceM3PerPa, C)) cIn++;
     }
-    expect(rIn).toBeGreaterThanOrEqual(17);
+    expect(rIn).toBeGreaterThanOrEqual(17); // same binomial bound as above
     expect(cIn).toBeGreaterThanOrEqual(17);
   });
 
@@ -82,7 +83,8 @@ describe('circuits end to end with fitTransient', () => {
       });
       if (contains(out.upstreamResistancePaSPerM3, R1) && contains(out.downstreamResistancePaSPerM3, R2) && contains(out.complianceM3PerPa, C)) hits++;
     }
-    // three intervals at once: expect at least ~85 % joint coverage
+    // three intervals at once: expect at least ~85 % joint coverage (common practice, no source; if the three
+    // were independent, 0.95³ = 0.857 per run and P(≥ 16 of 20) = 0.85 — they are correlated, so this is loose)
     expect(hits).toBeGreaterThanOrEqual(16);
   });
 
@@ -115,6 +117,7 @@ describe('circuits end to end with fitTransient', () => {
         expect(e.standardError / e.value).toBeLessThan(0.2);
       }
     }
+    // Common practice, no source: four intervals at once; 0.2 relative SE is our own "informative" threshold.
     expect(ok).toBeGreaterThanOrEqual(8);
   });
 });

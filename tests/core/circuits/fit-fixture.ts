@@ -56,6 +56,7 @@ export function makeFit(spec: FixtureSpec): TransientFit {
     runsZ: 0,
     windowInTaus: 10,
     settled: true,
+    // Rounded multiples of τ, physics.md §4.1 [N]: t63 = τ, t95 = 2.9957 τ, t99 = 4.6052 τ (fixture only, not asserted).
     t63S: slowest,
     t95S: 3 * slowest,
     t99S: 4.6 * slowest,

@@ -27,6 +27,7 @@ function synthetic(seed: number, pressureNoisePa: number, flowNoise: number) {
 
 describe('complianceFromFlowBalance', () => {
   it('complianceFromFlowBalance returns C exactly on noise-free data (trapezoid error only)', () => {
+    // Mass balance of §4.2 [D]: C·Δp = ∫(Q_in − Q_out) dt; 1000 trapezoids over 5τ leave an error < 1e-4.
     const { tS, p, qOut } = synthetic(1, 0, 0);
     const out = complianceFromFlowBalance({ tS, pressurePa: p, flowInM3PerS: Q0, flowOutM3PerS: qOut });
     expect(out.complianceM3PerPa.value / C).toBeCloseTo(1, 4);
@@ -42,6 +43,7 @@ describe('complianceFromFlowBalance', () => {
       if (lo <= C && C <= hi) covered++;
       expect(Math.abs(out.complianceM3PerPa.value / C - 1)).toBeLessThan(0.1);
     }
+    // Coverage bound: common practice, no source; with true 95 % coverage P(≥ 8 of 10) = 0.988 (binomial, scipy.stats.binom).
     expect(covered).toBeGreaterThanOrEqual(8);
   });
 
@@ -61,6 +63,8 @@ describe('complianceFromFlowBalance with flow-dominated noise', () => {
       const out = complianceFromFlowBalance({ tS, pressurePa: p, flowInM3PerS: Q0, flowOutM3PerS: qOut });
       const [lo, hi] = out.complianceM3PerPa.ci95;
       if (lo <= C && C <= hi) covered++;
+      // Integrated white flow noise is a random walk: residuals strongly autocorrelated [D]; 0.5 and n/3 are
+      // thresholds of our own (common practice, no source). Coverage ≥ 8/10 as above.
       expect(out.residualLag1).toBeGreaterThan(0.5);
       expect(out.effectiveN).toBeLessThan(out.n / 3);
     }

@@ -3,7 +3,7 @@ import { estimateFlowDriven, monteCarloPropagate, parameterSetFromFit } from '..
 import { makeFit } from './fit-fixture';
 
 // Circuit of physics.md §4.2 (syringe pump → C → R → outlet): p(t) = Q0·R·(1 − e^(−t/(RC))).
-const R = 2e13; // Pa·s/m³ (≈ 3.3 mbar/(µL/min), a typical chip, physics.md §1.2 table magnitude)
+const R = 2e13; // Pa·s/m³ (≈ 3.3 mbar/(µL/min); typical chips 1e12–1e16, physics.md §6 [P]) — a test input
 const C = 1e-13; // m³/Pa
 const Q0 = 1e-10; // m³/s (6 µL/min)
 
@@ -20,6 +20,7 @@ describe('estimateFlowDriven', () => {
 
   it('estimateFlowDriven handles a downward step (both Δp and ΔQ negative) with positive R and C', () => {
     const dp = Q0 * R;
+    // §4.2 with the step reversed [D]: Δp = −2000 Pa, ΔQ = −Q0 → R = Δp/ΔQ = 2e13; C = τ/R = 2 s/2e13 = 1e-13.
     const fit = makeFit({ yInf: 0, terms: [{ tauS: 2, amplitude: dp }] });
     const out = estimateFlowDriven({ pressureFit: fit, flowBeforeM3PerS: Q0, flowAfterM3PerS: 0 });
     expect(out.resistancePaSPerM3?.value).toBeCloseTo(R, -7);
@@ -44,7 +45,7 @@ describe('estimateFlowDriven', () => {
     expect(out.resistancePaSPerM3?.standardError).toBeCloseTo(sDp / Q0, -7);
     const relC = Math.sqrt((st / 2) ** 2 + (sDp / dp) ** 2 - (2 * rho * st * sy) / (2 * dp));
     expect(out.complianceM3PerPa!.standardError / C).toBeCloseTo(relC, 6);
-    // CI = value ± t(0.975, 200)·SE; t(0.975, 200) = 1.972 (standard t table)
+    // CI = value ± t(0.975, 200)·SE; t(0.975, 200) = 1.972 (standard t table; scipy.stats.t.ppf(0.975, 200) = 1.97190)
     const ci = out.complianceM3PerPa!.ci95;
     expect((ci[1] - ci[0]) / 2 / out.complianceM3PerPa!.standardError).toBeCloseTo(1.972, 3);
   });
@@ -75,7 +76,7 @@ describe('estimateFlowDriven', () => {
   });
 
   it('estimateFlowDriven flags a CI spanning more than a factor of 10 as inconclusive', () => {
-    // τ = 2 ± 0.45 s, dof = 2: t = 4.303 (t table) → CI ≈ [0.064, 3.94] s, ratio ≈ 62
+    // τ = 2 ± 0.45 s, dof = 2: t = 4.303 (NIST/SEMATECH e-Handbook §1.3.6.7.2 t table) → CI ≈ [0.064, 3.94] s, ratio ≈ 62
     const fit = makeFit({ yInf: 2000, terms: [{ tauS: 2, amplitude: -2000, tauSe: 0.45 }], dof: 2 });
     const out = estimateFlowDriven({ pressureFit: fit, flowBeforeM3PerS: 0, flowAfterM3PerS: Q0 });
     expect(out.complianceM3PerPa!.ci95[0]).toBeGreaterThan(0);
@@ -83,6 +84,7 @@ describe('estimateFlowDriven', () => {
   });
 
   it('estimateFlowDriven uses the slowest term of a 2-term fit and says so', () => {
+    // Derivation: slowest term τ = 2 s, Δp = 2000 Pa → R = 2e13, C = τ/R = 1e-13 (§4.1 τ = R·C); term 2 is the slow one.
     const fit = makeFit({ yInf: 2000, terms: [{ tauS: 0.05, amplitude: -100 }, { tauS: 2, amplitude: -1900 }] });
     const out = estimateFlowDriven({ pressureFit: fit, flowBeforeM3PerS: 0, flowAfterM3PerS: Q0 });
     expect(out.tauTermIndex).toBe(2);
@@ -91,6 +93,7 @@ describe('estimateFlowDriven', () => {
   });
 
   it('estimateFlowDriven warns when the pressure moves against the flow change', () => {
+    // §4.2 [D]: a passive outlet has R = Δp/ΔQ > 0; here Δp = −2000 Pa for ΔQ = +Q0, so R would be negative.
     const fit = makeFit({ yInf: -2000, terms: [{ tauS: 2, amplitude: 2000 }] });
     const out = estimateFlowDriven({ pressureFit: fit, flowBeforeM3PerS: 0, flowAfterM3PerS: Q0 });
     expect(out.warnings.map((w) => w.code)).toContain('resistance-sign');

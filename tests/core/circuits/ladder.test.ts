@@ -61,6 +61,7 @@ describe('ladderTimeConstants', () => {
   });
 
   it('ladderTimeConstants gives RC and RC/3 for equal R and C with a pressure source (§4.4)', () => {
+    // physics.md §4.4 check value [N]: R1 = R2 = R3 = R, C1 = C2 = C → τ = RC and RC/3; here RC = 1 s.
     const t = ladderTimeConstants({ r1PaSPerM3: 1e13, r2PaSPerM3: 1e13, r3PaSPerM3: 1e13, c1M3PerPa: 1e-13, c2M3PerPa: 1e-13 });
     expect(t.slowS).toBeCloseTo(1, 12);
     expect(t.fastS).toBeCloseTo(1 / 3, 12);
@@ -100,6 +101,7 @@ describe('estimateLadder', () => {
       ],
     });
     const out = estimateLadder({ pressureFit: fit, drive: { kind: 'flow', flowBeforeM3PerS: 0, flowAfterM3PerS: q0 } });
+    // Expected: the circuit constants the fit was built from by the test's own eigen-solution (checked against RK4 above).
     expect(out.node1ComplianceM3PerPa.value / c1).toBeCloseTo(1, 9);
     expect(out.node2ComplianceM3PerPa.value / c2).toBeCloseTo(1, 9);
     expect(out.resistanceBetweenNodesPaSPerM3.value / r2).toBeCloseTo(1, 9);
@@ -120,6 +122,7 @@ describe('estimateLadder', () => {
       pressureFit: fit,
       drive: { kind: 'pressure', pressureBeforePa: 0, pressureAfterPa: 10000, upstreamResistance: { value: 2e13 } },
     });
+    // Expected: the §4.4 check circuit (R2 = 1e13, R3 = 3e13, C1 = 1e-13, C2 = 5e-14) and its slow τ 1.80656 s [N].
     expect(out.node1ComplianceM3PerPa.value / 1e-13).toBeCloseTo(1, 9);
     expect(out.node2ComplianceM3PerPa.value / 5e-14).toBeCloseTo(1, 9);
     expect(out.resistanceBetweenNodesPaSPerM3.value / 1e13).toBeCloseTo(1, 9);
@@ -146,6 +149,7 @@ describe('estimateLadder', () => {
   });
 
   it('estimateLadder refuses a 1-term fit', () => {
+    // physics.md §4.4 [D]: two compliant nodes give two time constants, so one term cannot identify four unknowns.
     const fit = makeFit({ yInf: 1, terms: [{ tauS: 1, amplitude: -1 }] });
     expect(() => estimateLadder({ pressureFit: fit, drive: { kind: 'flow', flowBeforeM3PerS: 0, flowAfterM3PerS: 1 } })).toThrow(/2-term/);
   });

@@ -11,6 +11,7 @@ const TAU = (C * R1 * R2) / (R1 + R2); // §4.3: τ = C·R1·R2/(R1 + R2)
 
 describe('estimatePressureDriven', () => {
   it('the §4.3 circuit has τ = 0.6667 s (physics.md §4.3 check value)', () => {
+    // physics.md §4.3 [N]. Checks the test's own circuit constants against the sheet, not the code under test.
     expect(TAU).toBeCloseTo(0.6667, 4);
   });
 
@@ -25,6 +26,7 @@ describe('estimatePressureDriven', () => {
       pressureAfterPa: DP,
       upstreamResistance: { value: R1 },
     });
+    // Expected: the §4.3 circuit constants the exact fit was built from (R_total = Δp/Q2(∞), C = τ(R1+R2)/(R1R2)).
     expect(out.resistancePaSPerM3!.value / (R1 + R2)).toBeCloseTo(1, 12);
     expect(out.downstreamResistancePaSPerM3!.value / R2).toBeCloseTo(1, 12);
     expect(out.complianceM3PerPa!.value / C).toBeCloseTo(1, 12);
@@ -56,6 +58,7 @@ describe('estimatePressureDriven', () => {
       pressureAfterPa: 1000 + DP,
       flowBefore: { value: qBefore },
     });
+    // §4.3 fit recipe [D]: R1 = Δp/Q1(0⁺ jump), R1 + R2 = Δp/ΔQ(∞), C = τ(R1 + R2)/(R1 R2).
     expect(out.upstreamResistancePaSPerM3!.value / R1).toBeCloseTo(1, 10);
     expect(out.downstreamResistancePaSPerM3!.value / R2).toBeCloseTo(1, 10);
     expect(out.resistancePaSPerM3!.value / (R1 + R2)).toBeCloseTo(1, 10);
@@ -77,6 +80,7 @@ describe('estimatePressureDriven', () => {
   });
 
   it('estimatePressureDriven refuses an inlet sensor without the pre-step flow', () => {
+    // §4.3 [D]: R1 = Δp/Q1(0⁺) needs the flow before the step; without it the jump is unknown.
     const fit = makeFit({ yInf: 1e-10, terms: [{ tauS: TAU, amplitude: 2e-10 }] });
     expect(() => estimatePressureDriven({ flowFit: fit, sensor: 'inlet', pressureBeforePa: 0, pressureAfterPa: DP })).toThrow(
       /flow before the step/,
@@ -93,6 +97,7 @@ describe('estimatePressureDriven', () => {
       pressureAfterPa: DP,
       upstreamResistance: { value: 4e13 },
     });
+    // §4.3 [D]: R2 = R_total − R1 must be positive; 4e13 > R_total = 3e13 leaves no C.
     expect(out.complianceM3PerPa).toBeNull();
     expect(out.warnings.map((w) => w.code)).toContain('upstream-exceeds-total');
   });
@@ -103,7 +108,7 @@ describe('estimatePressureDriven', () => {
     const base = { flowFit: fit, sensor: 'outlet' as const, pressureBeforePa: 0, pressureAfterPa: DP };
     const exact = estimatePressureDriven({ ...base, upstreamResistance: { value: R1 } });
     const uncertain = estimatePressureDriven({ ...base, upstreamResistance: { value: R1, standardError: 0.1 * R1 } });
-    expect(exact.complianceM3PerPa!.standardError).toBe(0);
+    expect(exact.complianceM3PerPa!.standardError).toBe(0); // the exact fixture has zero SEs everywhere
     // Derivation: C = τ·Rt/(Ru·(Rt − Ru)); ∂ln C/∂ln Ru = −1 + Ru/(Rt − Ru) = −1 + 0.5 = −0.5 → σ_C/C = 0.05
     expect(uncertain.complianceM3PerPa!.standardError / C).toBeCloseTo(0.05, 6);
   });
@@ -132,6 +137,7 @@ describe('estimatePressureDriven', () => {
       { samples: 40000, seed: 11 },
     );
     const ratio = mc.standardDeviation / out.complianceM3PerPa!.standardError;
+    // ±5 %: common practice, no source (Monte Carlo SD of 40 000 samples is itself good to ~0.4 %).
     expect(ratio).toBeGreaterThan(0.95);
     expect(ratio).toBeLessThan(1.05);
     expect(mc.median / out.complianceM3PerPa!.value).toBeCloseTo(1, 2);

@@ -32,6 +32,7 @@ describe('combineEstimates', () => {
   });
 
   it('combineEstimates(scattered steps) inflates the SE by the Birge ratio and uses t with n − 1 dof', () => {
+    // Birge ratio S = √(χ²/(n − 1)) (R. T. Birge, Phys. Rev. 40, 207 (1932), from memory).
     // Two values 3 ± 0.01 and 4 ± 0.01: χ² = 2·(0.5/0.01)² = 5000, S = √5000 = 70.71; SE = 0.01/√2·S = 0.5.
     const c = combineEstimates([{ value: 3, standardError: 0.01, ci95: null }, { value: 4, standardError: 0.01, ci95: null }])!;
     expect(c.value).toBeCloseTo(3.5, 12);
@@ -54,6 +55,7 @@ describe('measurementFromAnalysis', () => {
   });
 
   it('measurementFromAnalysis(no steps / all inconclusive) marks the whole chip inconclusive', () => {
+    // Behaviour of our own (docs/qc-spec.md): nothing to combine → inconclusive, never a silent pass.
     expect(measurementFromAnalysis(analysis([]), 'C').inconclusive[0]?.reason).toMatch(/no setpoint steps/);
     expect(measurementFromAnalysis(analysis([step(0, 3, 0.1, { inconclusive: true })]), 'C').inconclusive[0]?.reason).toMatch(/none of the 1 step/);
   });
@@ -65,6 +67,7 @@ describe('measurementFromAnalysis', () => {
     };
     const a = { ...analysis([step(0, 3, 0.1, fields as Partial<StepJson>)]), trapped_air: { volume_m3_at_atm: 2e-9, ci95: [1.5e-9, 2.5e-9], method: 'excess-compliance', statement: 'gas found' } };
     const m = measurementFromAnalysis(a, 'C');
+    // Expected values are the inputs above, passed through unchanged.
     expect(m.quantities.resistance).toMatchObject({ value: 3e13, ci95: [2.9e13, 3.1e13] });
     // SE from the CI half-width / z₀.₉₇₅ (1.959964, normal table) when the SE is not given.
     expect(m.quantities.resistance?.standardError).toBeCloseTo(0.1e13 / 1.959964, -6);
@@ -82,6 +85,7 @@ describe('measurementFromAnalysis', () => {
   });
 
   it('modelCurve evaluates y∞ + a·exp(−t/τ) from the step parameters', () => {
+    // Derivation: step() has y∞ = 1000, a = −1000; τ = 2 s → y(0) = 0, y(2 s) = 1000·(1 − e⁻¹).
     const y = modelCurve(step(0, 2, 0.1), [0, 2])!;
     expect(y[0]).toBeCloseTo(0, 9);
     expect(y[1]).toBeCloseTo(1000 - 1000 * Math.exp(-1), 9);
@@ -101,6 +105,7 @@ describe('nominalComplianceParts', () => {
         ],
       },
     };
+    // Expected values are the counted inputs above (the syringe part is not counted).
     expect(nominalComplianceParts(a)).toEqual({ parts: [{ label: 'tubing: walls', complianceM3PerPa: 6e-14 }, { label: 'chip: walls', complianceM3PerPa: 4e-14 }], totalM3PerPa: 1e-13 });
     expect(nominalComplianceParts(analysis([]))).toBeNull();
   });

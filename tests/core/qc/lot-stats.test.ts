@@ -4,12 +4,15 @@ import { D2_N2, individualsChart, lotMeans } from '../../../src/core/qc/control-
 
 describe('summarize', () => {
   it('summarize(NIST StRD univariate NumAcc1) gives the certified mean 10000002 and SD 1 (from memory)', () => {
+    // NIST StRD univariate NumAcc1 (certified values from memory); also by hand: deviations −1, +1, 0
+    // from the mean 10000002 → sample variance (1 + 1 + 0)/2 = 1.
     const s = summarize([10000001, 10000003, 10000002]);
     expect(s.mean).toBe(10000002);
     expect(s.sd).toBeCloseTo(1, 12);
   });
 
   it('summarize ignores non-finite values; one value has no SD', () => {
+    // Definition: mean of {1, 3} = 2; a sample SD needs n ≥ 2 (n − 1 in the denominator).
     expect(summarize([1, Number.NaN, 3])).toMatchObject({ n: 2, mean: 2, min: 1, max: 3 });
     expect(summarize([5]).sd).toBeNull();
     expect(summarize([]).mean).toBeNull();
@@ -28,6 +31,7 @@ describe('capability', () => {
   });
 
   it('capability with one limit gives the one-sided ratio as Cpk; σ = 0 gives null', () => {
+    // Derivation above: with only the USL, Cpk = Cpu = (10 − 3)/(3·√2.5) = 1.47573; σ = 0 has no ratio.
     const c = capability(summarize([1, 2, 3, 4, 5]), null, 10);
     expect(c.cp).toBeNull();
     expect(c.cpk).toBeCloseTo(1.47573, 5);
@@ -37,6 +41,7 @@ describe('capability', () => {
 
 describe('individualsChart', () => {
   it('D2_N2 equals the tabulated d₂ = 1.128 for n = 2 (ASTM E2587 / Montgomery appendix table, from memory)', () => {
+    // Also by derivation: the mean range of two N(0, σ²) samples is E|X₁ − X₂| = 2σ/√π, so d₂ = 2/√π = 1.12838.
     expect(D2_N2).toBeCloseTo(1.128, 3);
   });
 
@@ -51,6 +56,8 @@ describe('individualsChart', () => {
   });
 
   it('individualsChart flags a point beyond 3σ', () => {
+    // Worked by hand: moving ranges sum 5.4 over 8 → MR̄ = 0.675, σ̂ = 0.675/1.12838 = 0.598,
+    // centre 10.456 → UCL 12.250, LCL 8.661: only the last point (14) lies outside.
     const values = [10, 10.2, 9.9, 10.1, 10, 9.8, 10.1, 10, 14];
     const c = individualsChart(values.map((value, k) => ({ label: `c${k}`, group: 'L', value })));
     expect(c.points.at(-1)?.outOfControl).toBe(true);
@@ -58,6 +65,7 @@ describe('individualsChart', () => {
   });
 
   it('lotMeans averages per lot in first-seen order', () => {
+    // Definition: lot B = mean(1, 3) = 2, lot A = 4.
     expect(lotMeans([{ group: 'B', value: 1 }, { group: 'A', value: 4 }, { group: 'B', value: 3 }])).toEqual([
       { label: 'B', group: 'B', value: 2 },
       { label: 'A', group: 'A', value: 4 },

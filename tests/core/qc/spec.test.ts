@@ -26,12 +26,12 @@ describe('parseJsonLocated', () => {
   it('parseJsonLocated(trailing comma) throws at the line:column of the closing brace', () => {
     const e = errorOf(() => parseJsonLocated('{\n  "a": 1,\n}', 'x.json'));
     expect(e.code).toBe('json-syntax');
-    expect(e.location).toEqual({ file: 'x.json', line: 3, column: 1 });
+    expect(e.location).toEqual({ file: 'x.json', line: 3, column: 1 }); // counted in the text: '}' opens line 3 (RFC 8259 has no trailing comma)
   });
 
   it('parseJsonLocated(duplicate key) is rejected at the second key', () => {
     const e = errorOf(() => parseJsonLocated('{"a": 1,\n "a": 2}'));
-    expect(e.location).toMatchObject({ line: 2, column: 2 });
+    expect(e.location).toMatchObject({ line: 2, column: 2 }); // counted in the text: the second "a" starts at line 2, column 2
     expect(e.problem).toMatch(/twice/);
   });
 
@@ -42,7 +42,7 @@ describe('parseJsonLocated', () => {
     expect(doc.value).toEqual(JSON.parse(text));
     // Expected column counted from the text itself (1-based).
     expect(doc.locate(['x', 1, 'y'])).toEqual({ line: 2, column: text.split('\n')[1]!.indexOf('-2.5') + 1 });
-    expect(doc.locate(['s'])).toEqual({ line: 3, column: 7 });
+    expect(doc.locate(['s'])).toEqual({ line: 3, column: 7 }); // counted in the text: ' "s": ' is 6 characters
   });
 
   it('parseJsonLocated rejects what JSON.parse rejects (leading zeros, single quotes, NaN)', () => {
@@ -77,8 +77,8 @@ describe('parseQcSpec', () => {
   it('parseQcSpec converts spec units to SI (physics.md §5: 1 µL/mbar = 1e-11 m³/Pa; 1 mbar/(µL/min) = 6e12 Pa·s/m³)', () => {
     const spec = parseQcSpec(minimal('{ "compliance": { "unit": "uL_per_mbar", "max": 2 }, "trapped_air": { "unit": "uL", "max": 0.5 }, "resistance": { "unit": "mbar_per_uL_per_min", "min": 1 } }'));
     const by = Object.fromEntries(spec.limits.map((l) => [l.quantity, l]));
-    expect(by.compliance?.upperSi).toBeCloseTo(2e-11, 24);
-    expect(by.trapped_air?.upperSi).toBeCloseTo(5e-10, 22);
+    expect(by.compliance?.upperSi).toBeCloseTo(2e-11, 24); // 2 µL/mbar = 2e-9 m³ / 100 Pa
+    expect(by.trapped_air?.upperSi).toBeCloseTo(5e-10, 22); // 0.5 µL = 0.5e-9 m³ (BIPM SI Brochure Table 8: 1 L = 1e-3 m³)
     // 1 mbar/(µL/min) = 100 Pa / (1e-9 m³ / 60 s) = 6e12 Pa·s/m³ (from the unit definitions).
     expect(by.resistance?.lowerSi).toBeCloseTo(6e12, 0);
   });
@@ -87,6 +87,7 @@ describe('parseQcSpec', () => {
     const text = minimal('{\n    "trapped_air": { "unit": "gallons", "max": 1 }\n  }');
     const e = errorOf(() => parseQcSpec(text, 'spec.json'));
     expect(e.code).toBe('qc-spec-invalid');
+    // Counted in the text: the limits object opens on line 5; the value "gallons" (its opening quote) is at line 6, column 30.
     expect(e.location).toEqual({ file: 'spec.json', line: 6, column: 30 });
     expect(e.message).toMatch(/limits\.trapped_air\.unit/);
     expect(e.message).toMatch(/uL/);
@@ -98,11 +99,12 @@ describe('parseQcSpec', () => {
     const issues = (e as InputError & { issues: { path: string; line: number }[] }).issues;
     // In file order.
     expect(issues.map((i) => i.path)).toEqual(['limits.tau.max', 'inconclusive_counts_as', 'colour']);
-    expect(issues.find((i) => i.path === 'colour')?.line).toBe(7);
+    expect(issues.find((i) => i.path === 'colour')?.line).toBe(7); // counted in the text of minimal() + extra
     expect(e.message).toMatch(/2 more problem/);
   });
 
   it('parseQcSpec rejects min/max mixed with nominal, missing tolerance, tolerance ≥ 100, text numbers', () => {
+    // Rules of our own spec format (docs/qc-spec.md); the numbers are test inputs.
     expect(() => parseQcSpec(minimal('{ "resistance": { "unit": "Pa_s_per_m3", "nominal": 1, "tolerance_percent": 5, "max": 2 } }'))).toThrow(/mixes/);
     expect(() => parseQcSpec(minimal('{ "resistance": { "unit": "Pa_s_per_m3", "nominal": 1 } }'))).toThrow(/needs both/);
     expect(() => parseQcSpec(minimal('{ "resistance": { "unit": "Pa_s_per_m3", "nominal": 1, "tolerance_percent": 100 } }'))).toThrow(/between 0 and 100/);

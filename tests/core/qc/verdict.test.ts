@@ -4,7 +4,9 @@ import type { ChipMeasurement, QcQuantity } from '../../../src/core/qc/types';
 import { classifyInterval, combineVerdicts, evaluateChip, evaluateLimit, VERDICT_RULE } from '../../../src/core/qc/verdict';
 
 // The decision rule under test is our own (docs/qc-spec.md): limits inclusive (common practice, no source);
-// pass = whole CI inside, fail = whole CI outside, otherwise inconclusive.
+// pass = whole CI inside, fail = whole CI outside, otherwise inconclusive. The same three zones appear in
+// JCGM 106:2012 and ISO 14253-1 (conformity decisions with measurement uncertainty) — from memory.
+// Numbers below are test inputs chosen around the spec limits, not reference values.
 
 describe('classifyInterval', () => {
   const L = 10;
@@ -58,6 +60,7 @@ const SPEC = parseQcSpec(`{
 
 /** Values comfortably inside every limit above (SI; nL = 1e-12 m³, nL/kPa = 1e-15 m³/Pa). */
 function goodChip(): ChipMeasurement {
+  // 1.96 = z₀.₉₇₅ of the standard normal (NIST/SEMATECH e-Handbook §1.3.6.7.1), so SE = half-width/1.96.
   const mv = (value: number, half: number) => ({ value, standardError: half / 1.96, ci95: [value - half, value + half] as [number, number] });
   return {
     chipId: 'M2-001',
@@ -91,7 +94,7 @@ describe('evaluateLimit at and around each limit', () => {
       const sign = side === 'lower' ? 1 : -1; // direction pointing into the limit band
       const at = (lo: number, hi: number) => {
         const m = goodChip();
-        m.quantities[q] = { value: (lo + hi) / 2, standardError: (hi - lo) / 3.92, ci95: [lo, hi] };
+        m.quantities[q] = { value: (lo + hi) / 2, standardError: (hi - lo) / 3.92, ci95: [lo, hi] }; // 3.92 = 2 × z₀.₉₇₅
         return evaluateLimit(limit, m);
       };
       const inside = sign > 0 ? at(edge, edge + w) : at(edge - w, edge);
@@ -128,6 +131,7 @@ describe('evaluateLimit at and around each limit', () => {
     const m = goodChip();
     m.quantities.trapped_air = { value: 80e-12, standardError: 5e-12, ci95: [70e-12, 90e-12] };
     const r = evaluateLimit(lim('trapped_air'), m);
+    // 80e-12 m³ = 80 nL (1 nL = 1e-12 m³, BIPM SI Brochure 9th ed. Table 8); wording is docs/qc-spec.md's.
     expect(r.verdict).toBe('fail');
     expect(r.reason).toBe('Trapped-air volume = 80 nL, 95 % CI [70, 90] nL; limit ≤ 50 nL; whole CI outside the limit → fail.');
   });
