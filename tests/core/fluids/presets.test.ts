@@ -25,7 +25,7 @@ describe('resolveFluid', () => {
     expect(f.viscosityPaS.high).toBeCloseTo(waterViscosityPaS(K(19)), 12);
     expect(f.viscosityPaS.low).toBeCloseTo(waterViscosityPaS(K(21)), 12);
     expect(f.viscosityPaS.high / f.viscosityPaS.nominal - 1).toBeGreaterThan(0.02);
-    expect(f.vapourPressurePa).toBeCloseTo(2339, -1);
+    expect(f.vapourPressurePa).toBeCloseTo(2339, -1); // physics.md §2.2f [N]: 2.339 kPa at 20 °C (IAPWS-IF97)
   });
 
   it('resolveFluid(ethanol at 25 °C) gives 1.074 mPa·s', () => {
@@ -43,6 +43,8 @@ describe('resolveFluid', () => {
 
   it('resolveFluid(culture medium with serum) carries a wide [M] range and a shear-thinning note', () => {
     const f = resolveFluid({ kind: 'preset', preset: 'culture-medium-serum', temperatureK: K(37), temperatureToleranceK: 0 });
+    // physics.md §2.3: serum medium numbers [M], shear-thinning per Sints et al. (2024) [S]; the > 1.2 width is
+    // a sanity bound of our own (common practice, no source).
     expect(f.viscosityTag).toBe('M');
     expect(f.viscosityPaS.high / f.viscosityPaS.low).toBeGreaterThan(1.2);
     expect(f.notes.join(' ')).toMatch(/shear-thinning/);
@@ -50,6 +52,7 @@ describe('resolveFluid', () => {
 
   it('resolveFluid(custom without compressibility) falls back to water with a note', () => {
     const f = resolveFluid({ kind: 'custom', name: 'oil', temperatureK: K(20), viscosityPaS: 0.02, viscosityRelativeUncertainty: 0.1, compressibilityRelativeUncertainty: 0.1 });
+    // Derivation: 0.02 Pa·s ± 10 % → 0.018 / 0.022; water fallback κ_T(20 °C) = 4.5892e-10 /Pa, physics.md §2.2c [N].
     expect(f.viscosityPaS.low).toBeCloseTo(0.018, 12);
     expect(f.viscosityPaS.nominal).toBe(0.02);
     expect(f.viscosityPaS.high).toBeCloseTo(0.022, 12);
@@ -58,6 +61,7 @@ describe('resolveFluid', () => {
   });
 
   it('resolveFluid(isopropanol at 50 °C) throws an InputError naming the valid range', () => {
+    // The 15–30 °C range is the preset's own validity window (physics.md §2.3 gives values only at 20/25 °C [M]).
     expect(() => resolveFluid({ kind: 'preset', preset: 'isopropanol', temperatureK: K(50), temperatureToleranceK: 0 })).toThrow(InputError);
     expect(() => resolveFluid({ kind: 'preset', preset: 'isopropanol', temperatureK: K(50), temperatureToleranceK: 0 })).toThrow(/15–30 °C/);
   });

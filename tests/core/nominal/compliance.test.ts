@@ -135,6 +135,7 @@ describe('channel wall compliance', () => {
 
 describe('materials', () => {
   it('findMaterial(pdms) carries the Johnston et al. (2014) range 1.32–2.97 MPa', () => {
+    // physics.md §3.8 and §7: Johnston et al., J. Micromech. Microeng. 24, 035017 (2014), journal abstract [S].
     const m = findMaterial('pdms');
     expect(m?.modulusPa.low).toBe(1.32e6);
     expect(m?.modulusPa.high).toBe(2.97e6);

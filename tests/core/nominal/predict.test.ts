@@ -71,6 +71,7 @@ describe('predictNominal', () => {
   });
 
   it('predictNominal combines parallel branches as conductances', () => {
+    // physics.md §1.1 [S]: conductances add, so two equal arms give R_arm/2.
     const arm = { type: 'rectangular-channel', width: '100 um', height: '50 um', length: '20 mm' };
     const p = predictNominal(chip({ chip: [{ type: 'parallel', branches: [[arm], [arm]] }] }), 'flow-driven');
     expect(rel(p.resistance.chipPaSPerM3.nominal, rectangularResistancePaSPerM3(waterViscosityPaS(293.15), 100e-6, 50e-6, 0.02) / 2)).toBeLessThan(1e-12);
@@ -89,6 +90,7 @@ describe('predictNominal', () => {
   it('predictNominal uses a fitted α when the description gives one', () => {
     const c = chip({ chip: [{ type: 'rectangular-channel', width: '1 mm', height: '50 um', length: '10 mm' }] }, { chipBody: { material: 'pdms', modulus: '2 MPa', deformationAlpha: 0.25 } });
     const wall = predictNominal(c, 'flow-driven').compliance.breakdown.find((b) => b.source === 'channel-wall');
+    // Behaviour of our own: a stated E and α leave no range (low = high); tag 'U' = user-given, not physics.md's [M].
     expect(wall?.complianceM3PerPa.low).toBeCloseTo(wall?.complianceM3PerPa.high ?? NaN, 30);
     expect(wall?.tag).toBe('U');
   });
@@ -99,6 +101,7 @@ describe('predictNominal', () => {
     const gas = predictNominal(c, 'flow-driven').compliance.breakdown.find((b) => b.source === 'gas');
     expect(gas?.complianceM3PerPa.nominal).toBeCloseTo(9.869e-14, 16);
     expect(gas?.complianceM3PerPa.low).toBeCloseTo(7.049e-14, 16);
+    // Vapour-saturated bound V/(p − p_v), physics.md §3.3 [N]; p_v(20 °C) = 2.339 kPa, §2.2f [N] (IAPWS-IF97).
     expect(gas?.complianceM3PerPa.high).toBeCloseTo(10e-9 / (101325 - 2339.2), 16);
     // At 1 bar gauge the gas is half as compliant (Boyle; gauge + ambient).
     const atBar = predictNominal(c, 'flow-driven', { operatingPressurePa: 101325 }).compliance.breakdown.find((b) => b.source === 'gas');
@@ -112,12 +115,15 @@ describe('predictNominal', () => {
       downstream: [{ type: 'measured', resistance: 1e11, compliance: 1e-12 }],
     });
     const p = predictNominal(c, 'pressure-driven');
+    // Modelling choice of our own (docs/chip-description.md), common practice, no source: a headspace held by the
+    // source stays at the set pressure and the outlet side is not counted, so only the chip's stated 1e-14 remains.
     expect(p.compliance.totalM3PerPa.nominal).toBe(1e-14);
     expect(p.compliance.breakdown.filter((b) => !b.counted).map((b) => b.source).sort()).toEqual(['gas', 'liquid', 'measured']);
   });
 
   it('predictNominal(pressure-driven) without upstream resistance warns and gives τ = 0', () => {
     const p = predictNominal(chip({ chip: [{ type: 'measured', resistance: 1e13, compliance: 1e-13 }] }), 'pressure-driven');
+    // physics.md §4.3 [D]: τ = C·R1·R2/(R1 + R2) → 0 as R1 → 0 (an ideal pressure source right at the node).
     expect(p.tauS.nominal).toBe(0);
     expect(p.warnings.map((w) => w.code)).toContain('no-upstream-resistance');
   });
@@ -125,6 +131,7 @@ describe('predictNominal', () => {
   it('predictNominal on every sample chip keeps low ≤ nominal ≤ high and gives JSON-serialisable output', () => {
     const dir = 'sample-logs/chips';
     const files = readdirSync(dir).filter((f) => f.endsWith('.json'));
+    // Invariants only (low ≤ nominal ≤ high, JSON round trip); 3 = the invented sample chips shipped in sample-logs/chips.
     expect(files.length).toBeGreaterThanOrEqual(3);
     for (const f of files) {
       const c = parseChipDescription(readFileSync(join(dir, f), 'utf8'), f);

@@ -82,6 +82,7 @@ describe('rectangularResistancePaSPerM3', () => {
   });
 
   it('rectangularResistancePaSPerM3 does not care which side is called the width', () => {
+    // physics.md §1.3 [D]: the series is written for h ≤ w, "swap if needed" — the same rectangle either way.
     expect(rectangularResistancePaSPerM3(MU20, 50e-6, 200e-6, 0.01)).toBe(rectangularResistancePaSPerM3(MU20, 200e-6, 50e-6, 0.01));
   });
 });
@@ -101,7 +102,7 @@ describe('Shah & London Poiseuille numbers', () => {
   it('shahLondonFanningPoiseuille(1) is 14.227 within 0.1 % (56.91/4 for the square duct)', () => {
     // Shah & London (1978) via physics.md §1.5: 56.91 [S] Darcy = 14.227 Fanning.
     expect(rel(shahLondonFanningPoiseuille(1), 14.227)).toBeLessThan(1e-3);
-    expect(shahLondonFanningPoiseuille(0)).toBe(24); // parallel plates, exact
+    expect(shahLondonFanningPoiseuille(0)).toBe(24); // parallel plates, exact: f_D Re = 96 → Fanning 96/4 (physics.md §1.5 table [D])
   });
 
   it('shahLondonFanningPoiseuille lies above the exact series by at most 0.1 % on (0, 1]', () => {
@@ -119,6 +120,7 @@ describe('Shah & London Poiseuille numbers', () => {
   });
 
   it('rectangularResistanceShahLondonPaSPerM3 agrees with the exact series within 0.1 %', () => {
+    // physics.md §1.5 [N]: Shah & London fit vs exact series, max deviation 0.063 %.
     for (const [w, h] of [[100e-6, 50e-6], [50e-6, 50e-6], [200e-6, 20e-6]] as const) {
       expect(rel(rectangularResistanceShahLondonPaSPerM3(MU20, w, h, 0.01), rectangularResistancePaSPerM3(MU20, w, h, 0.01))).toBeLessThan(1e-3);
     }
@@ -134,13 +136,14 @@ describe('Shah & London Poiseuille numbers', () => {
 describe('series and parallel combination', () => {
   // physics.md §1.1 (Kirchhoff analogy) [S].
   it('seriesResistance adds and parallelResistance adds conductances', () => {
+    // Arithmetic of §1.1: series 1 + 2 + 3 = 6; parallel 1/(1/2 + 1/2) = 1, 1/(1 + 1/2 + 1/2) = 0.5 (×1e13).
     expect(seriesResistance([1e13, 2e13, 3e13])).toBe(6e13);
     expect(parallelResistance([2e13, 2e13])).toBeCloseTo(1e13, -1);
     expect(parallelResistance([1e13, 2e13, 2e13])).toBeCloseTo(5e12, -1);
   });
 
   it('parallelResistance with a zero-resistance branch short-circuits the group', () => {
-    expect(parallelResistance([0, 1e13])).toBe(0);
+    expect(parallelResistance([0, 1e13])).toBe(0); // §1.1 [D]: an infinite conductance in parallel gives R = 0
   });
 
   it('R of water changes by about 2.4 % for 1 K near 20 °C', () => {
