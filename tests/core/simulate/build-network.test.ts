@@ -12,6 +12,8 @@ describe('buildNetwork', () => {
   it('buildNetwork(chip, flow-driven) has τ = R_down·C of the nominal prediction (physics.md §4.2)', () => {
     const built = buildNetwork(chip, 'flow-driven');
     const taus = timeConstantsAt(built.network, ['flow'], { node: built.nominal.operatingPressurePa });
+    // Cross-check of two code paths (network eigenvalue vs predictNominal); the nominal τ itself is checked
+    // against hand derivations of §4.2/§4.3 in tests/core/nominal/predict.test.ts.
     expect(taus).toHaveLength(1);
     expect(taus[0]! / built.nominal.tauS.nominal).toBeCloseTo(1, 10);
     // The steady inlet pressure of the simulated circuit is Q·R_down (physics.md §1.1).
@@ -23,6 +25,7 @@ describe('buildNetwork', () => {
   it('buildNetwork(chip, pressure-driven) has τ = C·R_up·R_down/(R_up + R_down) (physics.md §4.3)', () => {
     const built = buildNetwork(chip, 'pressure-driven');
     const taus = timeConstantsAt(built.network, ['pressure']);
+    // Cross-check of two code paths, as above; the resistor ids are our own naming.
     expect(taus[0]! / built.nominal.tauS.nominal).toBeCloseTo(1, 10);
     expect(built.network.resistors.map((r) => r.id)).toEqual(['upstream', 'downstream']);
   });
@@ -30,7 +33,7 @@ describe('buildNetwork', () => {
   it('buildNetwork(extra gas) adds V_atm·p_atm/p_abs² at the node (physics.md §3.3: 10 µL at 1 atm = 9.869e-14 m³/Pa)', () => {
     const plain = buildNetwork(chip, 'flow-driven');
     const bubbly = buildNetwork(chip, 'flow-driven', { extraGasAtAtmM3: 1e-8 });
-    expect(bubbly.gasVolumeAtAtmM3 - plain.gasVolumeAtAtmM3).toBeCloseTo(1e-8, 20);
+    expect(bubbly.gasVolumeAtAtmM3 - plain.gasVolumeAtAtmM3).toBeCloseTo(1e-8, 20); // the 10 µL passed in
     const net = { ...bubbly.network, ambientPressurePa: 101325 };
     const cAt0 = timeConstantsAt(net, ['flow'], { node: 0 })[0]! / bubbly.nominal.resistance.downstreamPaSPerM3.nominal;
     expect((cAt0 - plain.linearComplianceM3PerPa) / 9.869e-14).toBeCloseTo(1, 3);
@@ -110,7 +113,8 @@ describe('buildNetwork(nodes: two)', () => {
     const res = simulate(two.network, prog, { timesS: Float64Array.from([1, 1 + 1e-7, 1 + 2e-7]) });
     const p = res.nodePressurePa.node!;
     const pIn = res.nodePressurePa.inlet!;
-    // The inlet rises linearly at first (Q/C1): p(2δ)/p(δ) = 2; the chip node quadratically (zero slope): 4.
+    // Derivation (Taylor expansion at the step, §4.4 [D]): the inlet rises linearly at first (Q/C1): p(2δ)/p(δ) = 2;
+    // the chip node quadratically (zero slope): 4.
     expect((pIn[2]! - pIn[0]!) / (pIn[1]! - pIn[0]!)).toBeCloseTo(2, 1);
     expect((p[2]! - p[0]!) / (p[1]! - p[0]!)).toBeCloseTo(4, 1);
   });

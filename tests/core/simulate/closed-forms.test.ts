@@ -48,7 +48,7 @@ describe('simulate (exact linear solver) against closed forms', () => {
     };
     const res = simulate(net, step('pressure', 'pressure', 0, 0.5, dp), { sampleRateHz: 100, durationS: 6 });
     const tau = (C * R1 * R2) / (R1 + R2);
-    expect(tau).toBeCloseTo(0.6667, 4); // physics.md §4.3 check value
+    expect(tau).toBeCloseTo(0.6667, 4); // physics.md §4.3 check value [N] (checks the test's own oracle, not the code)
     const s = (t: number): number => (t < 0.5 ? 0 : 1 - Math.exp(-(t - 0.5) / tau));
     expect(maxRelErr(res.nodePressurePa.n as Float64Array, res.timeS, (t) => ((dp * R2) / (R1 + R2)) * s(t), dp)).toBeLessThan(1e-12);
     const q2 = (t: number): number => (dp / (R1 + R2)) * s(t);
@@ -94,6 +94,7 @@ describe('simulate (exact linear solver) against closed forms', () => {
     // p2 = p2∞·[1 − (λ2·e^(λ1 t) − λ1·e^(λ2 t))/(λ2 − λ1)], p2∞ = Q0·R3.
     const l1 = (-3 + Math.sqrt(5)) / (2 * R * C);
     const l2 = (-3 - Math.sqrt(5)) / (2 * R * C);
+    // Oracle self-check against the sheet's numbers (§4.4 [D]); the code is checked on p2 below.
     expect(-1 / l1 / (R * C)).toBeCloseTo(2.618, 3);
     expect(-1 / l2 / (R * C)).toBeCloseTo(0.382, 3);
     const p2 = (t: number): number => Q0 * R * (1 - (l2 * Math.exp(l1 * t) - l1 * Math.exp(l2 * t)) / (l2 - l1));
@@ -112,7 +113,7 @@ describe('simulate (exact linear solver) against closed forms', () => {
     const tau = R * C;
     const p = (t: number): number => a * R * (t - tau * (1 - Math.exp(-t / tau)));
     expect(maxRelErr(res.nodePressurePa.n as Float64Array, res.timeS, p, Q1 * R)).toBeLessThan(1e-12);
-    expect((res.setpoint.flow as Float64Array)[50]).toBeCloseTo(Q1 / 2, 22);
+    expect((res.setpoint.flow as Float64Array)[50]).toBeCloseTo(Q1 / 2, 22); // sample 50 at 25 Hz = 2 s, half of the 4 s linear ramp
   });
 
   it('simulate(pressure source with its own lag τs → R → C) gives the two-pole cascade response', () => {
@@ -144,7 +145,7 @@ describe('simulate (exact linear solver) against closed forms', () => {
     const res = simulate(net, { channels: [] }, { sampleRateHz: 1, durationS: 60, initial: 'rest' });
     const last = res.timeS.length - 1;
     expect((res.nodePressurePa.n as Float64Array)[last]).toBeCloseTo(head * 0.75, 6);
-    expect(head).toBeCloseTo(2936.7, 1);
+    expect(head).toBeCloseTo(2936.7, 1); // arithmetic of the oracle only (998.207 × 9.80665 × 0.3 = 2936.75), not the code
   });
 
   it('simulate(probe with lag) is the sensor-side first-order filter of the node pressure', () => {

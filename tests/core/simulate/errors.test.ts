@@ -23,6 +23,8 @@ function errorOf(f: () => unknown): InputError {
   throw new Error('no error thrown');
 }
 
+// The refusals and their wording are rules of our own (DEVELOPERS.md: InputError says what and where);
+// numbers here are test inputs, not reference values.
 describe('simulate refuses bad networks and programs', () => {
   it('simulate(resistor to an unknown end) names the resistor and the end', () => {
     const e = errorOf(() => simulate({ ...base, resistors: [{ id: 'r', from: 'n', to: 'drain', resistancePaSPerM3: 1e13 }] }, prog, { sampleRateHz: 1, durationS: 1 }));

@@ -27,6 +27,7 @@ describe('expm', () => {
   });
 
   it('expm(zero matrix) is the identity', () => {
+    // Definition: exp(0) = I (power series with only the identity term).
     const e = expm(mat([[0, 0, 0], [0, 0, 0], [0, 0, 0]]));
     expect(Array.from(e.a)).toEqual([1, 0, 0, 0, 1, 0, 0, 0, 1]);
   });

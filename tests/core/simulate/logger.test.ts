@@ -33,6 +33,8 @@ describe('simulateLogs', () => {
     expect(Array.from(a.channels[0]!.values)).toEqual(Array.from(b.channels[0]!.values));
     expect(Array.from(a.timeS)).toEqual(Array.from(b.timeS));
     expect(Array.from(a.channels[0]!.values)).not.toEqual(Array.from(c.channels[0]!.values));
+    // Determinism contract of our own (seeded RNG). Start = given start + the logger's 1.5 s clock offset;
+    // channel names follow our SI naming convention (DEVELOPERS.md).
     expect(a.startEpochMs).toBe(opts.startEpochMs + 1500);
     expect(a.channels.map((ch) => ch.name)).toEqual(['pressure_Pa', 'flow_setpoint_m3_per_s']);
   });

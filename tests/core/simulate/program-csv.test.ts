@@ -25,12 +25,14 @@ describe('parseProgramCsv', () => {
 
   it('parseProgramCsv(pressure in mbar, time in min, empty cells) keeps levels and converts (1 mbar = 100 Pa)', () => {
     const p = parseProgramCsv('time[min],pressure[mbar],pressure_2[kPa]\r\n0,100,1\r\n1,,2\r\n2,300,\r\n', 'p.csv');
+    // 100 mbar = 1e4 Pa (physics.md §5, exact), 1 min = 60 s, 1 kPa = 1e3 Pa; an empty cell keeps no point (our format).
     expect(p.channels.map((c) => c.name)).toEqual(['pressure', 'pressure_2']);
     expect(p.channels[0]!.points.map((x) => [x.timeS, x.valueSI])).toEqual([[0, 10_000], [120, 30_000]]);
     expect(p.channels[1]!.points.map((x) => [x.timeS, x.valueSI])).toEqual([[0, 1000], [60, 2000]]);
   });
 
   it('parseProgramCsv(bad inputs) gives located errors', () => {
+    // Our own program format (docs); line:column positions counted in each text.
     expect(err('').code).toBe('program-empty');
     expect(err('time_s,flow[uL/min]\n').code).toBe('program-empty');
     expect(err('time_s,flow\n0,1\n').message).toMatch(/^p\.csv:1:8: setpoint column 'flow' has no unit/);

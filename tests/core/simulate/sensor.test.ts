@@ -31,6 +31,7 @@ describe('sensor model', () => {
 
   it('jitteredTimes keeps time increasing and within ±0.45 periods of the nominal grid', () => {
     const t = jitteredTimes(100, 60, 0.02, createRng(1)); // σ twice the period: clipping must hold it
+    // 60 s at 100 Hz → 6001 samples including t = 0; the ±0.45-period clip is a rule of our own.
     expect(t.length).toBe(6001);
     for (let k = 1; k < t.length; k++) {
       expect(t[k]!).toBeGreaterThan(t[k - 1]!);
