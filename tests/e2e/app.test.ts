@@ -347,6 +347,21 @@ describe.skipIf(!haveBrowser)('desktop renderer in Chromium', () => {
     expect(await page.textContent('[data-testid="columns-0"] tbody tr:nth-child(3) td:nth-child(7)')).toContain('your override');
   });
 
+  it('user strings (file names, headers) are escaped in the report', async () => {
+    const evil = 'run<img src=x onerror=alert(1)>.csv';
+    writeFileSync(join(work, evil), run.text.replace('pressure [mbar]', 'pressure<b> [mbar]'));
+    const runs = await analysisRuns();
+    await page.setInputFiles('#file-input-logs', join(work, evil));
+    await waitForRunsAbove(runs);
+    const download = page.waitForEvent('download');
+    await page.click('#btn-export-report');
+    const html = readFileSync((await (await download).path()) as string, 'utf8');
+    expect(html).not.toContain('<img src=x');
+    expect(html).not.toContain('<b> [mbar]');
+    expect(html).toContain('run&lt;img src=x onerror=alert(1)&gt;.csv');
+    expect(html).toContain('pressure&lt;b&gt; [mbar]');
+  });
+
   it('a header-less log is refused with the reason, and reads once a sample rate is given', async () => {
     await page.setInputFiles('#file-input-logs', join(process.cwd(), 'sample-logs', 'headerless-100Hz.txt'));
     await page.click('#nav-import');
