@@ -30,6 +30,7 @@ const valid = `{
   "ratings": { "chip": "2 bar" }
 }`;
 
+// Format, codes and wording are our own (docs/chip-description.md); line numbers are counted in the texts above.
 describe('parseChipDescription', () => {
   it('parseChipDescription converts lengths, temperatures and pressures to SI', () => {
     const c = parseChipDescription(valid, 'chip.json');
@@ -41,9 +42,9 @@ describe('parseChipDescription', () => {
     expect(tube.lengthM).toBeCloseTo(0.5, 15);
     expect(tube.material.id).toBe('ptfe');
     expect(tube.ends).toBe('open');
-    expect(c.fluid.temperatureK).toBeCloseTo(295.15, 12);
-    expect(c.ambientPressurePa).toBe(101325);
-    expect(c.ratingsPa.chip).toBe(2e5);
+    expect(c.fluid.temperatureK).toBeCloseTo(295.15, 12); // 22 °C + 273.15 (BIPM SI Brochure §2.3.1, exact)
+    expect(c.ambientPressurePa).toBe(101325); // default: standard atmosphere (ISO 2533; NIST SP 811 B.8)
+    expect(c.ratingsPa.chip).toBe(2e5); // 2 bar = 2e5 Pa (NIST SP 811 B.8, exact)
     expect(c.body.kind).toBe('elastomer');
     expect(tube.origin).toEqual({ jsonPath: '$.path.upstream[0]', line: 7, column: 7 });
   });
@@ -61,6 +62,7 @@ describe('parseChipDescription', () => {
     const block = /## Complete example\s+```json\n([\s\S]*?)```/.exec(md)?.[1];
     expect(block).toBeDefined();
     const c = parseChipDescription(block as string, 'docs-example.json');
+    // Expected: the 4 chip elements and the ratings written in that docs example, converted (1 bar = 1e5 Pa).
     expect(c.path.chip).toHaveLength(4);
     expect(c.ratingsPa).toEqual({ chip: 2e5, bonding: 2e5, tubing: 1e6, fittings: 7e5 });
   });
@@ -203,7 +205,7 @@ describe('parseChipDescription material and fluid options', () => {
     const t = c.path.upstream[0];
     if (t?.type !== 'tubing') throw new Error('expected tubing');
     expect(t.material.modulusPa.nominal / 1e6).toBeCloseTo(2.5, 1);
-    expect(t.material.modulusPa.high / t.material.modulusPa.low).toBeCloseTo(3, 12);
+    expect(t.material.modulusPa.high / t.material.modulusPa.low).toBeCloseTo(3, 12); // ±50 % (physics.md §3.8): 1.5/0.5
     expect(t.material.tag).toBe('M');
   });
 
@@ -215,7 +217,7 @@ describe('parseChipDescription material and fluid options', () => {
     const c = parseChipDescription(base({ material: 'ptfe' }, { preset: 'custom', name: 'oil', temperature: '20 C', viscosity: '20 cP', density: '0.85 g/mL' }), 'c.json');
     expect(c.fluid.kind).toBe('custom');
     if (c.fluid.kind !== 'custom') return;
-    expect(c.fluid.viscosityPaS).toBeCloseTo(0.02, 12);
-    expect(c.fluid.densityKgPerM3).toBeCloseTo(850, 9);
+    expect(c.fluid.viscosityPaS).toBeCloseTo(0.02, 12); // 1 cP = 1e-3 Pa·s (NIST SP 811 B.8)
+    expect(c.fluid.densityKgPerM3).toBeCloseTo(850, 9); // 1 g/mL = 1000 kg/m³ (definition of the units)
   });
 });

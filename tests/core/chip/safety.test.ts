@@ -7,10 +7,11 @@ describe('checkPressureAgainstRatings', () => {
     expect(r.governing).toEqual({ part: 'chip', ratingPa: 2e5 });
     expect(r.exceeded).toEqual(['chip']);
     expect(r.unknown).toEqual(['fittings']);
-    expect(r.fractionOfRating).toBeCloseTo(1.25, 12);
+    expect(r.fractionOfRating).toBeCloseTo(1.25, 12); // 2.5e5 / 2e5; 'fittings' unknown because not given
   });
 
   it('checkPressureAgainstRatings compares suction by magnitude and reports no rating as null', () => {
+    // Rule of our own (common practice, no source): |−3e5| > 2e5 exceeds the rating.
     expect(checkPressureAgainstRatings(-3e5, { chip: 2e5 }).exceeded).toEqual(['chip']);
     expect(checkPressureAgainstRatings(1e5, {}).governing).toBeNull();
   });

@@ -41,6 +41,7 @@ describe('parseQuantity', () => {
     expect(si('5 uL', 'volume')).toBeCloseTo(5e-9, 20);
     expect(si('2 MPa', 'pressure')).toBe(2e6);
     expect(si('3 bar', 'pressure')).toBe(3e5);
+    // T/K = t/°C + 273.15 exactly (BIPM SI Brochure 9th ed. §2.3.1); 1 cP = 1 mPa·s (NIST SP 811 B.8, exact).
     expect(si('22 C', 'temperature')).toBeCloseTo(295.15, 12);
     expect(si('22 °C', 'temperature')).toBeCloseTo(295.15, 12);
     expect(si('300 K', 'temperature')).toBe(300);
@@ -52,6 +53,7 @@ describe('parseQuantity', () => {
   });
 
   it('parseQuantity refuses a unit of the wrong kind and milli/mega confusion', () => {
+    // Refusals and wording are our own; 'mpa' is refused because m (milli) and M (mega) differ (BIPM Table 7).
     expect(parseQuantity('5 mm', 'pressure')).toEqual({ error: 'unknown pressure unit "mm"' });
     expect(parseQuantity('2 mpa', 'pressure')).toHaveProperty('error');
     expect(parseQuantity('abc', 'length')).toHaveProperty('error');
@@ -78,6 +80,7 @@ describe('display units', () => {
   });
 
   it('formatQuantity prints three significant digits with the unit symbol', () => {
+    // physics.md §1.6 [N]: 1.4016e13 Pa·s/m³ = 2.336 mbar/(µL/min); §3.3 [N]: 9.869e-14 m³/Pa = 9.87 nL/mbar.
     expect(formatQuantity(1.4016e13, TRADE_UNITS.resistance)).toBe('2.34 mbar/(µL/min)');
     expect(formatQuantity(9.869e-14, TRADE_UNITS.compliance)).toBe('9.87 nL/mbar');
   });

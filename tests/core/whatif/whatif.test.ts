@@ -11,12 +11,14 @@ describe('parseVary', () => {
     const v = parseVary('PTFE feed line.length=10cm:1m:10');
     expect(v.target).toBe('PTFE feed line');
     expect(v.property).toBe('length');
+    // Derivation: 10 linearly spaced values from 0.1 m to 1 m (10 cm = 0.1 m exactly).
     expect(v.values).toHaveLength(10);
     expect(v.values[0]).toBeCloseTo(0.1, 12);
     expect(v.values[9]).toBeCloseTo(1, 12);
   });
 
   it('parseVary(comma lists, categories, bad input)', () => {
+    // 40 µm = 4e-5 m (SI prefix µ = 1e-6, BIPM SI Brochure Table 7); the refusals are rules of our own.
     const h = parseVary('chip[0].height=40um,50um').values as number[];
     expect(h[0]).toBeCloseTo(4e-5, 18);
     expect(h[1]).toBeCloseTo(5e-5, 18);
@@ -55,9 +57,11 @@ describe('whatIf', () => {
       expect(r.steadyFlowM3PerS * r.resistanceTotalPaSPerM3).toBeCloseTo(20_000, 6); // physics.md §1.1
       expect(r.meetsTarget).toBe(true);
     }
+    // A 1e9 s target is met by every row, so the range is the whole sweep 5–20 mm (derivation).
     expect(res.meetingRanges).toEqual([[0.005, 0.02]]);
   });
 
+  // The next two: message wording is our own; element names come from the invented sample chip pdms-mixer.json.
   it('whatIf(unknown element) lists the known ones', () => {
     expect(() => whatIf(chipText, 'pdms-mixer.json', parseVary('feed.length=1m:2m'), { setup: 'flow-driven', driveSI: 1e-11 })).toThrow(/known elements: '1 mL plastic syringe' \(upstream\[0\]\)/);
   });
@@ -75,6 +79,7 @@ describe('meetingRanges', () => {
   it('meetingRanges(t95 rising through the target) interpolates the crossing linearly', () => {
     // Derived here: between (1, 8) and (2, 12) the line reaches 10 at x = 1.5.
     expect(meetingRanges([row(0, 4), row(1, 8), row(2, 12), row(3, 16)], 10)).toEqual([[0, 1.5]]);
+    // (0, 20)→(1, 8) reaches 14 at x = 0.5; (1, 8)→(2, 20) at x = 1.5; never ≤ 10 in the last case.
     expect(meetingRanges([row(0, 20), row(1, 8), row(2, 20)], 14)).toEqual([[0.5, 1.5]]);
     expect(meetingRanges([row(0, 20), row(1, 30)], 10)).toEqual([]);
   });
@@ -92,6 +97,6 @@ describe('whatIfStepResponses', () => {
     // Samples at k·τ/100: index 100 is t = τ, index 300 is t = 3τ.
     expect(c.timeS[100]! / tau).toBeCloseTo(1, 12);
     expect(c.fraction[100]).toBeCloseTo(1 - Math.exp(-1), 8);
-    expect(c.fraction[300]).toBeCloseTo(0.95021, 5);
+    expect(c.fraction[300]).toBeCloseTo(0.95021, 5); // physics.md §4.1 [N]: 0.95021 at 3τ
   });
 });
