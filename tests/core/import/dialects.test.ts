@@ -98,7 +98,7 @@ describe('parseLogText units in headers', () => {
 
   it('parseLogText(head in cm, density option) uses the given density', () => {
     const v = channel('Time [s],Head [cm]\n0,10\n1,10\n', 'hydrostatic_head_Pa', { liquidDensityKgPerM3: 1260 });
-    expect(v[0]).toBeCloseTo(1260 * 9.80665 * 0.1, 10);
+    expect(v[0]).toBeCloseTo(1260 * 9.80665 * 0.1, 10); // ρ·g·h with the given ρ, g_n = 9.80665 m/s² (3rd CGPM 1901), 10 cm
   });
 
   it('parseLogText keeps a non-pressure column as other in its own unit, with a warning', () => {
@@ -161,6 +161,7 @@ describe('parseLogText time formats', () => {
     expect(Array.from(recording.channels[0]!.values)).toEqual([150, 160]);
   });
 
+  // ISO 8601-1:2019 (from memory): 'Z' = UTC, ±hh:mm offsets, comma or full stop as the decimal sign of seconds.
   it('parseLogText(ISO 8601 with Z, dot decimals) keeps the absolute start', () => {
     const { recording } = parseLogText('Timestamp,P [Pa]\n2026-03-14T09:00:00.000Z,1\n2026-03-14T09:00:00.010Z,2\n');
     expect(recording.startEpochMs).toBe(Date.UTC(2026, 2, 14, 9, 0, 0, 0));
@@ -178,6 +179,7 @@ describe('parseLogText time formats', () => {
     const utc = parseLogText(text);
     expect(utc.recording.startEpochMs).toBe(Date.UTC(2026, 2, 14, 10, 0, 0, 500));
     expect(utc.report.warnings.map((w) => w.code)).toContain('timezone-assumed-utc');
+    // An offset of +120 min means local = UTC + 2 h, so 10:00:00.5 local is 08:00:00.5 UTC.
     const local = parseLogText(text, { timezoneOffsetMin: 120 });
     expect(local.recording.startEpochMs).toBe(Date.UTC(2026, 2, 14, 8, 0, 0, 500));
     expect(local.report.warnings.map((w) => w.code)).not.toContain('timezone-assumed-utc');

@@ -57,6 +57,7 @@ describe('mergeRecordings', () => {
   it('mergeRecordings(logs that do not overlap) → logs-do-not-overlap', () => {
     const a = parseLogText('Time [s],P [Pa]\n0,0\n1,1\n2,2\n').recording;
     const b = parseLogText('Time [s],P [Pa]\n0,0\n1,1\n').recording;
+    // b shifted by 10 s spans 10–11 s; a spans 0–2 s: no common time (derivation).
     expect(() => mergeRecordings([a, b], { offsetsS: [10] })).toThrow(/does not overlap/);
   });
 
@@ -79,12 +80,14 @@ describe('interpolateOnto and medianIntervalS', () => {
 
   it('interpolateOnto leaves gaps longer than maxGap as NaN', () => {
     const out = interpolateOnto(Float64Array.from([0, 1, 10]), Float64Array.from([0, 1, 10]), Float64Array.from([0.5, 5]), 2);
-    expect(out[0]).toBe(0.5);
+    expect(out[0]).toBe(0.5); // halfway between (0, 0) and (1, 1); the 1→10 gap of 9 exceeds maxGap 2
     expect(Number.isNaN(out[1]!)).toBe(true);
   });
 
   it('medianIntervalS and summarizeRecording find the rate and a gap', () => {
     const r = parseLogText('Time [s],P [Pa]\n0,1\n0.1,2\n0.2,3\n0.5,4\n0.6,\n0.7,6\n').recording;
+    // Derivation: intervals 0.1, 0.1, 0.3, 0.1, 0.1 → median 0.1 s (10 Hz); one gap of 0.3 s after t = 0.2 s;
+    // one missing value (the empty cell at 0.6 s).
     expect(medianIntervalS(r.timeS)).toBeCloseTo(0.1, 12);
     const s = summarizeRecording(r);
     expect(s.sampleRateHz).toBeCloseTo(10, 9);

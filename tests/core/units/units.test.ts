@@ -99,11 +99,13 @@ describe('liquid-head heights: p = ρ·g·h', () => {
 
 describe('lookupUnit unknown and case-sensitive units', () => {
   it('lookupUnit(atm2) and lookupUnit(gal/min) return null', () => {
+    // Not in our unit table (a choice of our own: SI and trade units only).
     expect(lookupUnit('atm2')).toBeNull();
     expect(lookupUnit('gal/min')).toBeNull();
   });
 
   it('lookupUnit(mPa) is not MPa: millipascal is not mistaken for megapascal', () => {
+    // BIPM SI Brochure 9th ed. Table 7: m = 1e-3, M = 1e6 — prefixes are case-sensitive.
     expect(lookupUnit('MPa')?.unit.symbol).toBe('MPa');
     expect(lookupUnit('mPa')).toBeNull();
   });
