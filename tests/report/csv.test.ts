@@ -42,6 +42,7 @@ describe('chipChecksCsv', () => {
     const input = reportInput('=cmd');
     const parsed = Papa.parse<Record<string, unknown>>(chipChecksCsv(input).trimEnd(), { header: true, dynamicTyping: true });
     expect(parsed.data).toHaveLength(input.evaluation.results.length);
+    // Expected: the fixture's invented values; lower limit = 2.0e13 × (1 − 10 %) = 1.8e13 (derivation).
     expect(parsed.data[0]).toMatchObject({ chip_id: "'=cmd", check: 'resistance', value: 2e13, ci95_lo: 1.98e13, lower_limit: 1.8e13, verdict: 'pass' });
   });
 });

@@ -1,4 +1,7 @@
-/** A chip report input with known values and hostile user strings (test helper). */
+/**
+ * A chip report input with known values and hostile user strings (test helper). All numbers are invented
+ * test inputs (no reference values); 111325 Pa = 101325 Pa (standard atmosphere) + 100 mbar gauge.
+ */
 import { parseQcSpec } from '../../src/core/qc/spec';
 import type { ChipMeasurement } from '../../src/core/qc/types';
 import { evaluateChip } from '../../src/core/qc/verdict';

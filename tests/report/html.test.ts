@@ -44,7 +44,7 @@ describe('renderChipReportHtml', () => {
     expect(html).toContain('Residuals (measured − fit)');
     expect(html).toContain('<polyline');
     expect(html).toContain('Compliance breakdown');
-    expect(html).toContain('Estimated trapped-air volume 8 nL');
+    expect(html).toContain('Estimated trapped-air volume 8 nL'); // fixture 8e-12 m³ = 8 nL (1 nL = 1e-12 m³); wording ours
     expect(html).toContain('a'.repeat(64));
     expect(html).toContain('b'.repeat(64));
     expect(html).toContain('@media print');
@@ -87,6 +87,7 @@ describe('renderLotReportHtml', () => {
       charts: [controlCharts(records, 'resistance'), controlCharts(records, 'compliance'), controlCharts(records, 'tau')],
       generatedAt: '2026-12-01T12:00:00.000Z', softwareVersion: '0.1.0', storePath: 'records.sqlite',
     });
+    // Headings are our own wording; 3σ limits are the Shewhart convention (Montgomery, SQC, ch. 6 — from memory).
     expect(html).toContain('UCL (+3σ)');
     expect(html).toContain('Hydraulic resistance R — individuals chart');
     expect(html).toContain('Compliance C — lot means across lots');
