@@ -1,4 +1,7 @@
-/** Builders of QC store inputs with known values (test helpers, not a test file). */
+/**
+ * Builders of QC store inputs with known values (test helpers, not a test file). Numbers are invented test
+ * inputs; the compliance adds the isothermal gas term V/p_atm (physics.md §3.3, p_atm = 101325 Pa).
+ */
 import { parseQcSpec } from '../../src/core/qc/spec';
 import type { ChipMeasurement } from '../../src/core/qc/types';
 import { evaluateChip } from '../../src/core/qc/verdict';

@@ -18,6 +18,7 @@ afterEach(() => {
 });
 const count = (s: QcStore, table: string): number => (s.db.prepare(`SELECT count(*) AS n FROM ${table}`).get() as { n: number }).n;
 
+// Storage behaviour of our own (append-only QC record, docs/qc-spec.md); expected values are the inputs stored.
 describe('recordChip / queryHistory', () => {
   it('recordChip then queryHistory round-trips every field (values, CIs, verdicts, reasons, inputs, settings)', () => {
     const s = mem();
@@ -88,7 +89,7 @@ describe('recordChip / queryHistory', () => {
     expect(count(s, 'qc_record')).toBe(2);
     expect(count(s, 'qc_input')).toBe(2);
     expect(count(s, 'qc_result')).toBe(good1.evaluation.results.length + good2.evaluation.results.length);
-    expect(count(s, 'qc_quantity')).toBe(6);
+    expect(count(s, 'qc_quantity')).toBe(6); // 2 stored records × 3 quantities of the fixture chip
   });
 
   it('openQcStore(file) persists records across reopen', () => {
@@ -138,6 +139,7 @@ describe('lotStatistics', () => {
     expect(r.stats.sd).toBeCloseTo(1e12, -1);
     expect(r.capability?.cpk).toBeCloseTo(2 / 3, 9);
     expect(r.capability?.cp).toBeCloseTo(2 / 3, 9);
+    // Every lot-A chip passes: R CI ±1 % of 1.9–2.1e13 lies inside 1.8–2.2e13; 1 nL of air is below 50 nL.
     expect(statistics.counts).toEqual({ pass: 3, fail: 0, retest: 0, inconclusive: 0 });
     const rc = charts.find((c) => c.quantity === 'resistance')!;
     expect(rc.individuals.points.map((p) => p.label)).toEqual(['A0', 'A1', 'A2', 'B0']);

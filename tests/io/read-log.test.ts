@@ -55,7 +55,7 @@ describe('readLogFile', () => {
     const { recording, report } = await readLogFile(path);
     expect(report.rows).toBe(i);
     expect(recording.channels[0]!.originalUnit).toBe('µL/min');
-    expect(recording.channels[0]!.values[i - 1]).toBeCloseTo((((i - 1) % 7) * 1e-9) / 60, 22);
+    expect(recording.channels[0]!.values[i - 1]).toBeCloseTo((((i - 1) % 7) * 1e-9) / 60, 22); // 1 µL/min = 1e-9/60 m³/s
   });
 
   it('readLogFile(binary file) → binary-file with the file name', async () => {
@@ -72,7 +72,7 @@ describe('readLogFile', () => {
     const { recording, report } = await readLogFile(path);
     expect(report.dialect.hadBom).toBe(true);
     expect(recording.channels[0]!.originalUnit).toBe('µL/min');
-    expect(recording.channels[0]!.values[1]).toBeCloseTo(2.5e-9 / 60, 22);
+    expect(recording.channels[0]!.values[1]).toBeCloseTo(2.5e-9 / 60, 22); // 2,5 µL/min (decimal comma); 1 µL/min = 1e-9/60 m³/s
     expect(report.bytes).toBe(statSync(path).size);
   });
 
@@ -81,7 +81,7 @@ describe('readLogFile', () => {
     writeFileSync(path, Buffer.concat([Buffer.from([0xff, 0xfe]), Buffer.from('Time [s],P [mbar]\n0,1\n1,2\n', 'utf16le')]));
     const { recording, report } = await readLogFile(path);
     expect(report.dialect.hadBom).toBe(true);
-    expect(Array.from(recording.channels[0]!.values)).toEqual([100, 200]);
+    expect(Array.from(recording.channels[0]!.values)).toEqual([100, 200]); // 1 mbar = 100 Pa (physics.md §5, exact)
   });
 
   it('readLogFile(file larger than one chunk) reports progress up to the size and reads every row', async () => {
@@ -99,9 +99,9 @@ describe('readLogFile', () => {
     const calls: [number, number][] = [];
     const { recording } = await readLogFile(path, {}, (done, total) => calls.push([done, total]));
     expect(recording.timeS.length).toBe(rows);
-    expect(calls.length).toBe(2);
+    expect(calls.length).toBe(2); // a file of 1.5 chunks is read in 2 chunks
     expect(calls[calls.length - 1]).toEqual([size, size]);
-    expect(recording.channels[0]!.values[rows - 1]).toBe(((rows - 1) % 1000) * 10);
+    expect(recording.channels[0]!.values[rows - 1]).toBe(((rows - 1) % 1000) * 10); // x/10 mbar × 100 Pa/mbar
   });
 
   it('readLogFile never modifies its input', async () => {
