@@ -7,6 +7,9 @@
  * same interface is implemented with file inputs and downloads (src/ui/api/browser-api.ts).
  */
 
+import type { QcApi } from './qc-ipc';
+export * from './qc-ipc';
+
 /** A log or work file read for the renderer. `path` is absolute in the desktop app; in a browser it is the file name. */
 export interface LoadedFile {
   path: string;
@@ -83,6 +86,8 @@ export interface LagbenchApi {
   clearRecent(): Promise<void>;
   /** Subscribes to menu commands; returns an unsubscribe function. */
   onMenu(listener: (event: MenuEvent) => void): () => void;
+  /** QC sign-off record store (electron/qc-ipc.ts); absent where records cannot be kept. */
+  readonly qc?: QcApi;
 }
 
 /** Invoke channels (renderer → main, with a reply). Names are the wire names. */

@@ -6,7 +6,7 @@
 import { app, BrowserWindow, dialog, ipcMain, Menu, protocol, session, type MenuItemConstructorOptions } from 'electron';
 import { mkdirSync, readFileSync } from 'node:fs';
 import { readFile, stat } from 'node:fs/promises';
-import { join } from 'node:path';
+import { join, resolve } from 'node:path';
 import { writeFileAtomic } from '../src/io/atomic-write';
 import { CONTENT_SECURITY_POLICY } from './csp';
 import { MENU_EVENT_CHANNEL, type MenuCommand, type MenuEvent, type RecentEntry } from './ipc';
@@ -15,7 +15,9 @@ import { APP_ENTRY_URL, APP_SCHEME, mimeTypeOf, resolveAppPath } from './handler
 import { createHandlers, readRecent, type HandlerDeps } from './handlers/file-handlers';
 import { PathAllowlist } from './handlers/path-allowlist';
 import { RecentFiles } from './handlers/recent-files';
-import { registerIpcHandlers } from './handlers/register';
+import { registerIpcHandlers, registerQcHandlers } from './handlers/register';
+import { createQcHandlers } from './handlers/qc-handlers';
+import { DEFAULT_QC_STORE } from '../src/io/qc-store';
 import { hardenContents, hardenSession } from './security';
 
 const RENDERER_DIR = join(__dirname, '..', 'renderer');
@@ -159,6 +161,14 @@ app.whenReady().then(() => {
       installMenu(deps);
     },
   });
+  // QC sign-off: the same record store as `lagbench qc` (lagbench-records.sqlite in the working folder, or LAGBENCH_QC_DB).
+  registerQcHandlers(ipcMain, createQcHandlers({
+    storePath: resolve(process.env.LAGBENCH_QC_DB ?? join(process.cwd(), DEFAULT_QC_STORE)),
+    softwareVersion: app.getVersion(),
+    nowIso: () => new Date().toISOString(),
+    via: 'desktop',
+    save: { dialog: deps.dialog, writeAtomic: deps.files.writeAtomic, defaultSaveDir: deps.defaultSaveDir },
+  }));
   installMenu(deps);
   mainWindow = createWindow();
   mainWindow.on('closed', () => {

@@ -3,7 +3,7 @@
  * `window.lagbench` through contextBridge. No Node, no raw ipcRenderer reaches the page.
  */
 import { contextBridge, ipcRenderer } from 'electron';
-import { CHANNELS, MENU_EVENT_CHANNEL, isMenuEvent, type LagbenchApi, type MenuEvent } from './ipc';
+import { CHANNELS, MENU_EVENT_CHANNEL, QC_CHANNELS, isMenuEvent, type LagbenchApi, type MenuEvent } from './ipc';
 
 const api: LagbenchApi = {
   platform: 'desktop',
@@ -15,6 +15,13 @@ const api: LagbenchApi = {
   saveReport: (suggestedName, html) => ipcRenderer.invoke(CHANNELS.saveReport, suggestedName, html),
   listRecent: () => ipcRenderer.invoke(CHANNELS.listRecent),
   clearRecent: () => ipcRenderer.invoke(CHANNELS.clearRecent),
+  qc: {
+    info: () => ipcRenderer.invoke(QC_CHANNELS.info),
+    signOff: (request) => ipcRenderer.invoke(QC_CHANNELS.signOff, request),
+    history: (query) => ipcRenderer.invoke(QC_CHANNELS.history, query),
+    lotReport: (lot) => ipcRenderer.invoke(QC_CHANNELS.lotReport, lot),
+    saveCsv: (name, csv) => ipcRenderer.invoke(QC_CHANNELS.saveCsv, name, csv),
+  },
   onMenu(listener: (event: MenuEvent) => void) {
     const wrapped = (_e: unknown, payload: unknown): void => {
       if (isMenuEvent(payload)) listener(payload);

@@ -4,8 +4,8 @@ import type { Setup, Step } from '../core/steps/types';
 import type { AnalysisView, Capabilities, FitSettings, RecordingSummary, SeriesSet, StepsResult } from './worker/protocol';
 import type { StepEdit } from './steps-edit';
 
-export type ViewName = 'import' | 'recording' | 'steps' | 'diagnosis' | 'report';
-export const VIEWS: readonly ViewName[] = ['import', 'recording', 'steps', 'diagnosis', 'report'];
+export type ViewName = 'import' | 'recording' | 'steps' | 'diagnosis' | 'report' | 'whatif' | 'signoff';
+export const VIEWS: readonly ViewName[] = ['import', 'recording', 'steps', 'diagnosis', 'report', 'whatif', 'signoff'];
 
 export interface OpenFile {
   path: string;

@@ -18,6 +18,8 @@ import { renderRecordingView } from './views/recording-view';
 import { renderStepsView } from './views/steps-view';
 import { renderDiagnosisView } from './views/diagnosis-view';
 import { renderReportView } from './views/report-view';
+import { renderWhatIfView } from './views/whatif-view';
+import { renderSignOffView } from './views/signoff-view';
 import { buildReportHtml } from './report/report-html';
 import { loadedFromDrop } from './api/browser-api';
 
@@ -88,7 +90,7 @@ export class App {
       } else if (mod && e.key.toLowerCase() === 'e') {
         e.preventDefault();
         void this.exportReport();
-      } else if (e.altKey && /^[1-5]$/.test(e.key)) {
+      } else if (e.altKey && /^[1-7]$/.test(e.key)) {
         e.preventDefault();
         this.show(VIEWS[Number(e.key) - 1] as ViewName);
       }
@@ -192,6 +194,8 @@ export class App {
       steps: renderStepsView,
       diagnosis: renderDiagnosisView,
       report: renderReportView,
+      whatif: renderWhatIfView,
+      signoff: renderSignOffView,
     };
     renderers[view](this, root);
     if (key && !(document.activeElement instanceof HTMLElement && root.contains(document.activeElement) && document.activeElement !== document.body)) {

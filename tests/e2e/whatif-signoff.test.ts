@@ -192,7 +192,7 @@ describe.skipIf(!haveBrowser)('what-if view and QC sign-off in Chromium', () => 
 
     await page.fill('#history-lot', 'A');
     await page.click('#history-show');
-    await page.locator('[data-testid="history-table"]').scrollIntoViewIfNeeded();
+    await page.waitForSelector('[data-testid="control-chart-resistance"]');
     await page.evaluate(() => document.querySelector('[aria-label="Record history"]')?.scrollIntoView());
     await shot('history');
   });

@@ -6,6 +6,7 @@
  */
 import type { LagbenchApi, LoadedFile, MenuEvent, RecentEntry, SaveResult } from '../../../electron/ipc';
 import { MAX_LOGS } from '../../../electron/ipc';
+import { createBridgeQcApi } from './bridge-qc-api';
 
 async function toLoaded(file: File): Promise<LoadedFile> {
   return { path: file.name, name: file.name, bytes: new Uint8Array(await file.arrayBuffer()) };
@@ -100,6 +101,7 @@ export function createBrowserApi(): LagbenchApi {
     async clearRecent() {
       /* nothing kept in the browser */
     },
+    qc: createBridgeQcApi(),
     onMenu(listener) {
       listeners.add(listener);
       return () => listeners.delete(listener);
