@@ -30,6 +30,8 @@ export class App {
   readonly state: AppState = initialState();
   private readonly charts = new Map<ViewName, Chart[]>();
   private analyzeTimer: ReturnType<typeof setTimeout> | null = null;
+  /** Bumped on every (re-)import: results computed for an older recording are dropped. */
+  private generation = 0;
 
   constructor(readonly api: LagbenchApi, readonly worker: AnalysisClient) {}
 
@@ -257,6 +259,7 @@ export class App {
   async importFiles(adoptSetup = false, keepSteps: WorkFile['steps'] = null): Promise<void> {
     const s = this.state;
     if (!s.files.length) return;
+    this.generation++;
     s.recording = null;
     s.importError = null;
     s.analysis = null;
@@ -289,7 +292,10 @@ export class App {
     const s = this.state;
     if (!s.recording) return;
     try {
-      s.detected = await this.worker.request('detect', { setup: s.setup });
+      const generation = this.generation;
+      const detected = await this.worker.request('detect', { setup: s.setup });
+      if (generation !== this.generation) return;
+      s.detected = detected;
       s.steps = normalizeSteps(s.detected.steps, s.recording.durationS);
       s.stepEdits = [];
       s.selectedStep = s.steps.length ? 0 : null;
@@ -361,13 +367,16 @@ export class App {
     }
     s.analyzing = true;
     this.status(`Fitting ${s.steps.length} step(s)…`);
+    const generation = this.generation;
     try {
       const chipText = s.chip ? new TextDecoder().decode(s.chip.bytes) : null;
-      s.analysis = await this.worker.request(
+      const analysis = await this.worker.request(
         'analyze',
         { setup: s.setup, steps: s.steps, chipText, chipName: s.chip?.name ?? null, fit: s.fit, stepIndices: null },
         (f, label) => this.progress(f, label),
       );
+      if (generation !== this.generation) return;
+      s.analysis = analysis;
       s.analysisRuns++;
       s.analyzing = false;
       this.progress(null);
