@@ -29,6 +29,7 @@ vi.mock('electron', () => {
       whenReady: () => ready,
       on: vi.fn(),
       getPath: () => '/tmp/lagbench-main-test-nonexistent',
+      getVersion: () => '0.0.0-test',
       exit: vi.fn(),
       quit: vi.fn(),
     },
@@ -54,9 +55,10 @@ describe('main', () => {
     expect(prefs.webviewTag).toBe(false);
     expect(windows[0]?.url).toBe('lagbench-app://ui/index.html');
     expect(schemes).toEqual([{ scheme: 'lagbench-app', privileges: { standard: true, secure: true, supportFetchAPI: true, corsEnabled: true } }]);
-    expect([...handlers.keys()].sort()).toEqual([
-      'lagbench:clear-recent', 'lagbench:list-recent', 'lagbench:open-chip', 'lagbench:open-logs', 'lagbench:open-work', 'lagbench:read-logs', 'lagbench:save-report', 'lagbench:save-work',
-    ]);
+    // Every channel of the contract (electron/ipc.ts, including the QC sign-off channels of electron/qc-ipc.ts) and no other.
+    const { CHANNELS, QC_CHANNELS } = await import('../../electron/ipc');
+    expect([...handlers.keys()].sort()).toEqual([...Object.values(CHANNELS), ...Object.values(QC_CHANNELS)].sort());
+    expect(handlers.has('lagbench:read-logs')).toBe(true);
   });
 
   it('main refuses IPC from a foreign frame and wrong argument shapes', async () => {

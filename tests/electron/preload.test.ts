@@ -20,7 +20,7 @@ describe('preload', () => {
   it('preload exposes window.lagbench with the desktop platform and the API methods only', () => {
     const api = exposed.lagbench as Record<string, unknown>;
     expect(api.platform).toBe('desktop');
-    expect(Object.keys(api).sort()).toEqual(['clearRecent', 'listRecent', 'onMenu', 'openChip', 'openLogs', 'openWork', 'platform', 'readLogs', 'saveReport', 'saveWork']);
+    expect(Object.keys(api).sort()).toEqual(['clearRecent', 'listRecent', 'onMenu', 'openChip', 'openLogs', 'openWork', 'platform', 'qc', 'readLogs', 'saveReport', 'saveWork']);
   });
 
   it('preload saveReport invokes its channel with the name and text', async () => {
