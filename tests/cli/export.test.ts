@@ -8,6 +8,10 @@ import { captureIo } from '../helpers/cli-io';
 
 const cwd = process.cwd();
 
+// Exit codes (0 = ok, 2 = bad input or usage) and message wording are the project's own conventions
+// (team brief, DEVELOPERS.md); expected values come from the invented sample logs or the texts written here,
+// converted with the unit definitions noted beside each check.
+
 describe('lagbench export', () => {
   it('runCli(export --help) shows the column names and examples', async () => {
     const io = captureIo();
@@ -38,7 +42,7 @@ describe('lagbench export', () => {
     const again = join(dir, 'again.csv');
     expect(await runCli(['export', out, '--out', again], captureIo(cwd))).toBe(0);
     expect(readFileSync(again, 'utf8')).toBe(readFileSync(out, 'utf8'));
-    expect(first.startEpochMs).toBe(Date.UTC(2026, 2, 14, 10, 0, 0));
+    expect(first.startEpochMs).toBe(Date.UTC(2026, 2, 14, 10, 0, 0)); // first ISO timestamp of the sample pressure log
     expect(first.channels.map((c) => c.name)).toEqual(['pressure_Pa', 'flow_m3_per_s']);
   });
 
@@ -47,6 +51,7 @@ describe('lagbench export', () => {
     writeFileSync(join(dir, 'a.csv'), 'Time [s],P [mbar]\n0,1\n1,2\n');
     writeFileSync(join(dir, 'b.csv'), 'Time [s],P [kPa]\n0,1\n1,2\n');
     expect(await runCli(['export', 'a.csv', 'b.csv', '--offset', '0', '--out', 'ab.csv'], captureIo(dir))).toBe(0);
+    // 1 mbar = 100 Pa, 1 kPa = 1000 Pa (physics.md §5, exact)
     expect(readFileSync(join(dir, 'ab.csv'), 'utf8')).toBe('time_s,pressure_Pa,pressure_Pa_2\n0,100,1000\n1,200,2000\n');
   });
 

@@ -16,6 +16,7 @@ describe('parseSince', () => {
   });
 
   it('parseSince rejects what is not a date', () => {
+    // Month 13 does not exist; '12/01/2026' is not ISO 8601 (ambiguous day/month order).
     for (const bad of ['yesterday', '2026-13-45', '12/01/2026']) expect(() => parseSince(bad)).toThrow(/not a date/);
   });
 });
@@ -29,6 +30,7 @@ describe('lagbench history', () => {
       store.close();
       const t = captureIo(dir);
       expect(await runCli(['history'], t)).toBe(0);
+      // CSV cells neutralised per OWASP "CSV Injection" (leading ' before = + - @); the table keeps text as text.
       expect(t.stdoutText()).toContain('=HYPERLINK("x")');
       expect(t.stdoutText()).toContain('1 record(s).');
       const c = captureIo(dir);
@@ -37,7 +39,7 @@ describe('lagbench history', () => {
       expect(row).toContain(`"'=HYPERLINK(""x"")"`);
       expect(row).toContain(`"'@SUM(A1)"`);
       expect(row).toContain(`"'-L1"`);
-      expect(row).toMatch(/,20000000000000,/); // R stays a plain number
+      expect(row).toMatch(/,20000000000000,/); // R stays a plain number (the fixture's 2e13 Pa·s/m³)
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }

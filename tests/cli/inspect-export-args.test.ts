@@ -32,6 +32,7 @@ describe('parseCommandArgs', () => {
 
 describe('parseValueWithUnit (conversion factors: NIST SP 811 B.8, BIPM SI Brochure 9th ed. Tables 7–8)', () => {
   it('parseValueWithUnit(50mbar) = 5000 Pa; (2.5 µL/min) = 2.5e-9/60 m³/s; (2 min) = 120 s', () => {
+    // 1 mbar = 100 Pa (physics.md §5, exact); 1 µL/min = 1e-9/60 m³/s; 1 min = 60 s; 1 kPa = 1e3 Pa.
     expect(parseValueWithUnit('50mbar', 'p', ['pressure'])).toBe(5000);
     expect(parseValueWithUnit('2.5 µL/min', 'q', ['flow'])).toBeCloseTo(2.5e-9 / 60, 24);
     expect(parseValueWithUnit('2 min', 't', ['time'])).toBe(120);
@@ -56,6 +57,7 @@ describe('parseImportOptions', () => {
   });
 
   it('parseUtcOffset reads +hh:mm, -hhmm and Z', () => {
+    // ISO 8601 offsets (from memory): Z = +00:00; −05:00 = −300 min; '+1' is our shorthand for +01:00.
     expect(parseUtcOffset('Z')).toBe(0);
     expect(parseUtcOffset('-0500')).toBe(-300);
     expect(parseUtcOffset('+1')).toBe(60);

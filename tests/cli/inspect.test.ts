@@ -6,6 +6,9 @@ import { runCli } from '../../src/cli/main';
 import { PRESSURE_SAFETY_CAUTION } from '../../src/core/safety';
 import { captureIo } from '../helpers/cli-io';
 
+// Exit codes (0 = ok, 2 = bad input or usage) and message wording are the project's own conventions
+// (team brief, DEVELOPERS.md); expected values come from the invented sample logs or the texts written here,
+// converted with the unit definitions noted beside each check.
 const SAMPLES = ['pressure-controller.csv', 'syringe-pump-semicolon.csv', 'pressure-logger-iso.csv', 'flow-logger-iso.tsv', 'hydrostatic-head-spaces.txt', 'overnight-clock-units-row.csv'];
 
 describe('lagbench inspect', () => {
@@ -28,7 +31,7 @@ describe('lagbench inspect', () => {
     await runCli(['inspect', 'sample-logs/pressure-controller.csv'], io);
     const out = io.stdoutText();
     expect(out).toContain('comma delimiter, decimal point');
-    expect(out).toContain('sample rate 10 Hz');
+    expect(out).toContain('sample rate 10 Hz'); // the sample log's 0.1 s spacing; metadata line '# Chip: PDMS mixer M-07'
     expect(out).toContain('Chip: PDMS mixer M-07');
     expect(out).toContain('pressure_setpoint → pressure_setpoint_Pa');
     expect(out).toContain(PRESSURE_SAFETY_CAUTION);
@@ -39,6 +42,7 @@ describe('lagbench inspect', () => {
     expect(await runCli(['inspect', 'sample-logs/syringe-pump-semicolon.csv', '--json'], io)).toBe(0);
     const json = JSON.parse(io.stdoutText()) as { files: { report: { dialect: { delimiter: string; decimal: string; hadBom: boolean }; rows: number }; summary: { sampleRateHz: number } }[]; merged: unknown };
     expect(json.files[0]!.report.dialect).toMatchObject({ delimiter: ';', decimal: ',', hadBom: true });
+    // Counted in the sample file: 307 lines − 6 preamble/header lines = 301 rows; 200 ms spacing = 5 Hz.
     expect(json.files[0]!.report.rows).toBe(301);
     expect(json.files[0]!.summary.sampleRateHz).toBeCloseTo(5, 9);
     expect(json.merged).toBeNull();

@@ -4,6 +4,7 @@ import { runCli } from '../../src/cli/main';
 import { VERSION } from '../../src/cli/version';
 import { captureIo } from '../helpers/cli-io';
 
+// Exit code 2 for a usage error is the project's convention (team brief); the version comes from package.json.
 describe('runCli', () => {
   it('runCli(--version) prints the package.json version', async () => {
     const io = captureIo();

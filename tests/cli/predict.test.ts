@@ -8,6 +8,10 @@ import { captureIo } from '../helpers/cli-io';
 
 const SAMPLE = 'sample-logs/chips/pdms-mixer.json';
 
+// Exit codes (0 = ok, 2 = bad input or usage) and message wording are the project's own conventions
+// (team brief, DEVELOPERS.md); expected values come from the invented sample logs or the texts written here,
+// converted with the unit definitions noted beside each check.
+
 function tempChip(doc: object | string): string {
   const dir = mkdtempSync(join(tmpdir(), 'lagbench-predict-'));
   const file = join(dir, 'chip.json');
@@ -23,7 +27,7 @@ describe('lagbench predict', () => {
     expect(out).toMatch(/\[mbar\/\(µL\/min\)\]/);
     expect(out).toMatch(/\[nL\/mbar\]/);
     expect(out).toMatch(/time constant τ/);
-    expect(out).toMatch(/Pressure ratings \(gauge\): chip 2000 mbar/);
+    expect(out).toMatch(/Pressure ratings \(gauge\): chip 2000 mbar/); // the sample's "chip": "2 bar" rating
     expect(out).toContain(PRESSURE_SAFETY_CAUTION);
     expect(io.stderrText()).toBe('');
   });
@@ -40,10 +44,11 @@ describe('lagbench predict', () => {
     expect(await runCli(['predict', file, '--setup', 'pressure-driven', '--json'], io)).toBe(0);
     const json = JSON.parse(io.stdoutText());
     expect(json.setup).toBe('pressure-driven');
+    // 3.3333333333 mbar/(µL/min) × 6e12 = 2e13 Pa·s/m³ and 0.01 µL/mbar = 1e-13 m³/Pa (physics.md §5 [N]).
     expect(json.resistance_Pa_s_per_m3.nominal).toBeCloseTo(3e13, -4);
     expect(json.compliance_m3_per_Pa.nominal).toBeCloseTo(1e-13, 20);
     expect(json.tau_s.nominal).toBeCloseTo(0.6667, 4);
-    expect(json.t95_s.nominal).toBeCloseTo(0.6667 * 2.9957, 3);
+    expect(json.t95_s.nominal).toBeCloseTo(0.6667 * 2.9957, 3); // t95 = 2.9957 τ, physics.md §4.1 [N]
     expect(json.breakdown).toHaveLength(1);
     expect(json.breakdown[0].source).toBe('measured');
     expect(json.safety_caution).toBe(PRESSURE_SAFETY_CAUTION);
@@ -62,6 +67,7 @@ describe('lagbench predict', () => {
 
   it('runCli(predict --pressure above the chip rating) warns not to run at that pressure', async () => {
     const io = captureIo();
+    // 2.5 bar exceeds the sample's 2 bar chip and bonding ratings, not tubing (10 bar) or fittings (7 bar).
     expect(await runCli(['predict', SAMPLE, '--pressure', '2.5 bar'], io)).toBe(0);
     expect(io.stdoutText()).toMatch(/WARNING: the node pressure exceeds the stated rating of: chip, bonding/);
   });

@@ -31,6 +31,7 @@ describe('qc progress and worker threads', () => {
     const io = { ...captureIo(dir), isTty: true };
     await runCli(['qc', 'lot', '--spec', join(REPO, 'qc-specs/pdms-mixer-m2-settling.json'), '--db', 'tty.sqlite', '--report-dir', 'tty'], io);
     const err = io.err.join('');
+    // One redraw per log (3 logs); \r + ESC[2K = carriage return + "erase line" (ECMA-48 EL, from memory).
     expect(err.split('\r\x1b[2K').length - 1).toBe(3);
     expect(err.endsWith('\n')).toBe(true);
     expect(err).not.toMatch(/^qc \d/m);
@@ -40,7 +41,7 @@ describe('qc progress and worker threads', () => {
   it.skipIf(!existsSync(BUNDLE) || !existsSync(WORKER))('bundled lagbench qc runs min(cores, n) worker threads and gives the in-process verdicts', async () => {
     const spec = join(REPO, 'qc-specs/pdms-mixer-m2-settling.json');
     const viaWorkers = spawnSync(process.execPath, [BUNDLE, 'qc', 'lot', '--spec', spec, '--db', 'w.sqlite', '--report-dir', 'w', '--json'], { cwd: dir, encoding: 'utf8' });
-    expect(viaWorkers.status, viaWorkers.stderr).toBe(3);
+    expect(viaWorkers.status, viaWorkers.stderr).toBe(3); // exit 3 = a chip failed (README exit-code table)
     const w = JSON.parse(viaWorkers.stdout) as { workers: number; chips: { chip_id: string; verdict: string }[] };
     expect(w.workers).toBe(Math.min(availableParallelism(), 3) > 1 ? Math.min(availableParallelism(), 3) : 0);
     const io = captureIo(dir);
@@ -49,6 +50,6 @@ describe('qc progress and worker threads', () => {
     expect(p.workers).toBe(0);
     const verdicts = (s: typeof p) => s.chips.map((c) => `${c.chip_id}:${c.verdict}`).sort();
     expect(verdicts(w)).toEqual(verdicts(p));
-    expect(verdicts(w)).toEqual(['W-001:pass', 'W-002:fail', 'W-003:pass']);
+    expect(verdicts(w)).toEqual(['W-001:pass', 'W-002:fail', 'W-003:pass']); // W-002 is the chip simulated with air
   });
 });

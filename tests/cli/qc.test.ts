@@ -89,7 +89,7 @@ describe('lagbench qc', () => {
     expect(await runCli(['history', '--lot', 'A', '--json'], h)).toBe(0);
     const out = JSON.parse(h.stdoutText()) as { records: { chipId: string; verdict: string; inputs: { sha256: string }[] }[]; lot_statistics: { counts: Record<string, number> } };
     expect(out.records).toHaveLength(5);
-    expect(out.lot_statistics.counts).toEqual({ pass: 3, fail: 2, retest: 0, inconclusive: 0 });
+    expect(out.lot_statistics.counts).toEqual({ pass: 3, fail: 2, retest: 0, inconclusive: 0 }); // chips 2 and 4 carry air (header)
     expect(out.records[0]?.inputs[0]?.sha256).toMatch(/^[0-9a-f]{64}$/);
   });
 
@@ -130,7 +130,7 @@ describe('lagbench qc', () => {
   it('qc --chip-id-from filename:<regex> and metadata:<missing key> (located error, exit 2)', async () => {
     const ok = captureIo(dir);
     await runCli(['qc', 'lot-A/M2-001.csv', '--spec', 'settling.json', '--db', 'ids.sqlite', '--report-dir', 'r2', '--chip-id-from', 'filename:^M2-(\\d+)', '--json'], ok);
-    expect((JSON.parse(ok.stdoutText()) as Summary).chips[0]?.chip_id).toBe('001');
+    expect((JSON.parse(ok.stdoutText()) as Summary).chips[0]?.chip_id).toBe('001'); // the regex's first capture group
     const bad = captureIo(dir);
     expect(await runCli(['qc', 'lot-A/M2-001.csv', '--spec', 'settling.json', '--db', 'ids.sqlite', '--report-dir', 'r2', '--chip-id-from', 'metadata:serial'], bad)).toBe(EXIT.badInput);
     expect(bad.stdoutText()).toMatch(/no metadata line "serial/);

@@ -86,7 +86,7 @@ describe('simulate → analyze round trips', () => {
   it('flow-driven with a trapped 5 µL bubble: τ and C fall within the range the gas compliance spans across each step (physics.md §3.3)', async () => {
     await cli(['simulate', MIXER, '--program', 'flow.csv', '--out', 'bub.csv', '--bubble', '5 uL', '--seed', '14', '--jitter', '0']);
     const t = JSON.parse(readFileSync(join(dir, 'bub.csv.truth.json'), 'utf8')) as Truth & { trapped_air: { volume_m3_at_atm: number } };
-    expect(t.trapped_air.volume_m3_at_atm).toBeCloseTo(5e-9, 20);
+    expect(t.trapped_air.volume_m3_at_atm).toBeCloseTo(5e-9, 20); // the --bubble 5 uL given (1 µL = 1e-9 m³)
     const a = JSON.parse(await cli(['analyze', 'bub.csv', '--chip', MIXER, '--json'])) as Analysis;
     checkSteps(a, t, 4);
   });

@@ -10,6 +10,10 @@ const CHIP = join(ROOT, 'sample-logs/chips/pdms-mixer.json');
 const FLOW_PROGRAM = join(ROOT, 'sample-logs/programs/flow-steps.csv');
 let dir = '';
 
+// Exit codes (0 = ok, 2 = bad input or usage) and message wording are the project's own conventions
+// (team brief, DEVELOPERS.md); expected values come from the invented sample logs or the texts written here,
+// converted with the unit definitions noted beside each check.
+
 beforeAll(() => {
   dir = mkdtempSync(join(tmpdir(), 'lagbench-sim-'));
 });
@@ -57,9 +61,9 @@ describe('lagbench simulate', () => {
       steps: unknown[];
       note: string;
     };
-    expect(truth.trapped_air.volume_m3_at_atm).toBeCloseTo(2e-9, 20);
+    expect(truth.trapped_air.volume_m3_at_atm).toBeCloseTo(2e-9, 20); // the --bubble 2 uL given (1 µL = 1e-9 m³)
     expect(truth.tau_s[0]! / (truth.resistance_Pa_s_per_m3.downstream * truth.compliance_m3_per_Pa.total_at_operating_pressure)).toBeCloseTo(1, 10);
-    expect(truth.steps).toHaveLength(4);
+    expect(truth.steps).toHaveLength(4); // flow-steps.csv changes 4 times: 2 → 5 → 10 → 5 → 2 µL/min
     expect(truth.note).toMatch(/Invented data/);
   });
 

@@ -7,6 +7,10 @@ import { captureIo } from '../helpers/cli-io';
 
 const CHIP = resolve('sample-logs/chips/pdms-mixer.json');
 
+// Exit codes (0 = ok, 2 = bad input or usage) and message wording are the project's own conventions
+// (team brief, DEVELOPERS.md); expected values come from the invented sample logs or the texts written here,
+// converted with the unit definitions noted beside each check.
+
 async function run(args: string[], cwd = process.cwd()): Promise<{ code: number; out: string; err: string }> {
   const io = captureIo(cwd);
   const code = await runCli(args, io);
@@ -26,6 +30,7 @@ describe('lagbench whatif', () => {
     // The description's operating pressure is 150 mbar on 1013 mbar ambient: C_gas = V·p_atm/p_abs².
     const dC = j.rows[2]!.compliance_m3_per_Pa.nominal - j.rows[0]!.compliance_m3_per_Pa.nominal;
     expect(dC / ((1e-8 * 101300) / 116300 ** 2)).toBeCloseTo(1, 8);
+    // Target 13 s is a test input chosen between the rows' t95 values; the bubble-free end meets it.
     expect(j.rows.map((x) => x.meets_target)).toEqual([true, true, false]);
     expect(j.meeting_ranges).toHaveLength(1);
     expect(j.meeting_ranges[0]![0]).toBe(0);
@@ -40,7 +45,7 @@ describe('lagbench whatif', () => {
       expect(r.out).toMatch(/Caution: pressurised fluidics/);
       const lines = readFileSync(join(dir, 'resp.csv'), 'utf8').trim().split('\n');
       expect(lines[0]).toBe('time_s,fraction at plastic,fraction at glass');
-      expect(lines).toHaveLength(302);
+      expect(lines).toHaveLength(302); // header + 301 points (the command's curve resolution)
       const last = lines[lines.length - 1]!.split(',').map(Number);
       expect(last[1]).toBeGreaterThan(0.95); // 1.5 × the slowest t95: past 95 % (physics.md §4.1)
     } finally {
