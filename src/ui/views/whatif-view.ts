@@ -280,11 +280,11 @@ export function renderWhatIfView(app: App, root: HTMLElement): void {
       el('p', { class: 'small muted', text: `${res.setup}; drive ${res.setup === 'flow-driven' ? `${fmt(res.driveSI / M3S_PER_UL_MIN, 4)} µL/min` : `${fmt(res.driveSI / PA_PER_MBAR, 4)} mbar`}. Ranges come from the property uncertainties of the description.` }),
       resultTable(res),
       meeting ? el('p', { class: 'conclusion', 'data-testid': 'whatif-meeting', text: meeting }) : null);
-    const chart = canvasBox('tall', 'Predicted step responses, one line per sweep value', 'whatif-chart');
+    const chart = canvasBox('mid', 'Predicted step responses, one line per sweep value', 'whatif-chart');
     chart.canvas.dataset.curves = String(res.curves.length);
     const chartPanel = el('section', { class: 'panel', 'aria-label': 'Predicted step responses' }, el('h3', { text: 'Predicted step responses (overlaid)' }),
       el('p', { class: 'small muted', text: res.targetT95S === null ? 'Each line is one design, from rest to a step of the drive at t = 0.' : 'Thick lines meet the target t₉₅; dashed, faint lines do not.' }), chart.box);
-    root.append(tablePanel, chartPanel);
+    root.append(chartPanel, tablePanel);
     if (res.notes.length) root.append(el('details', { class: 'panel' }, el('summary', { text: `Notes on the prediction (${res.notes.length})` }), el('ul', { class: 'warn-list' }, ...res.notes.map((n) => el('li', { text: n })))));
     app.keepCharts('whatif', [new Chart(chart.canvas, responsesConfig(res, pageColors()))]);
   }
