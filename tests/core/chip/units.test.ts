@@ -17,7 +17,7 @@ describe('parseQuantity', () => {
     ['1 bar', 'pressure', 1e5],
     ['1 psi', 'pressure', 6894.757293],
     ['1 atm', 'pressure', 101325],
-    ['1 mmHg', 'pressure', 133.322], // §5 gives 6 digits [M]
+    ['1 mmHg', 'pressure', 133.322], // §5 gives 6 digits [M]; NIST SP 811 (2008) B.8: 1.333224 E+02 Pa confirms them
     ['1 cmH2O', 'pressure', 98.0665],
     ['1 mbar/(uL/min)', 'resistance', 6.0e12],
     ['1 psi/(uL/min)', 'resistance', 4.136854e14],
