@@ -18,8 +18,8 @@ import { renderRecordingView } from './views/recording-view';
 import { renderStepsView } from './views/steps-view';
 import { renderDiagnosisView } from './views/diagnosis-view';
 import { renderReportView } from './views/report-view';
-import { renderWhatIfView } from './views/whatif-view';
-import { renderSignOffView } from './views/signoff-view';
+import { dropOnWhatIf, renderWhatIfView } from './views/whatif-view';
+import { dropOnSignOff, renderSignOffView } from './views/signoff-view';
 import { buildReportHtml } from './report/report-html';
 import { loadedFromDrop } from './api/browser-api';
 
@@ -79,7 +79,7 @@ export class App {
       depth = 0;
       overlay.hidden = true;
       const list = e.dataTransfer?.files;
-      if (list && list.length) void this.openDropped(list);
+      if (list && list.length && !dropOnWhatIf(this, list) && !dropOnSignOff(this, list)) void this.openDropped(list);
     });
     window.addEventListener('keydown', (e) => {
       const mod = e.ctrlKey || e.metaKey;

@@ -118,6 +118,31 @@ describe.skipIf(!haveBrowser)('what-if view and QC sign-off in Chromium', () => 
     await shot('whatif');
   });
 
+  it('what-if: a dropped chip description goes to the sweep (not the log importer), and the view follows the dark theme', async () => {
+    const text = readFileSync(repo('sample-logs', 'chips', 'pdms-mixer-soft-tubing.json'), 'utf8');
+    await page.evaluate((t) => {
+      const dt = new DataTransfer();
+      dt.items.add(new File([t], 'pdms-mixer-soft-tubing.json', { type: 'application/json' }));
+      window.dispatchEvent(new DragEvent('drop', { dataTransfer: dt, bubbles: true, cancelable: true }));
+    }, text);
+    await page.waitForFunction(() => document.querySelector('[data-testid="whatif-chip-name"]')?.textContent?.includes('pdms-mixer-soft-tubing.json'));
+    await expect(page.textContent('#file-summary')).resolves.toBe('No logs open');
+    await page.click('#btn-theme');
+    expect(await page.getAttribute('html', 'data-theme')).toBe('dark');
+    const runs = Number((await page.getAttribute('html', 'data-whatif-runs')) ?? '0');
+    // Keyboard only: focus the target field, type, Enter computes.
+    await page.fill('#whatif-target-t95', '');
+    await page.focus('#whatif-target-t95');
+    await page.keyboard.type('9.5');
+    await page.keyboard.press('Enter');
+    await page.waitForFunction((k) => Number(document.documentElement.dataset.whatifRuns ?? '0') > k, runs);
+    expect(await page.$$('[data-testid^="whatif-row-"]')).toHaveLength(8);
+    await page.evaluate(() => document.querySelector('[aria-label="Predicted step responses"]')?.scrollIntoView());
+    await shot('whatif-dark');
+    await page.click('#btn-theme');
+    expect(await page.getAttribute('html', 'data-theme')).toBe('light');
+  });
+
   it('sign-off: a chip with trapped air fails the spec, is recorded in the CLI store and exported', async () => {
     // M2-002 of the simulated lot A carries 1.5 µL of trapped air (sample-logs/lot-A/README.md).
     const log = repo('sample-logs', 'lot-A', 'M2-002.csv');
@@ -200,7 +225,7 @@ describe.skipIf(!haveBrowser)('what-if view and QC sign-off in Chromium', () => 
     await page.fill('#history-lot', 'A');
     await page.click('#history-show');
     await page.waitForSelector('[data-testid="control-chart-resistance"]');
-    await page.evaluate(() => document.querySelector('[data-testid="history-table"]')?.scrollIntoView());
+    await page.evaluate(() => document.querySelector('[aria-label="History filters"]')?.scrollIntoView());
     await shot('history');
   });
 

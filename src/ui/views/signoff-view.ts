@@ -67,6 +67,14 @@ function chooseSpec(app: App, file: BundledFile): void {
   app.render();
 }
 
+/** A spec (.json) dropped while this view is shown becomes the acceptance spec, not a log to import. */
+export function dropOnSignOff(app: App, list: FileList): boolean {
+  const file = list[0];
+  if (app.state.view !== 'signoff' || list.length !== 1 || !file || !/\.json$/i.test(file.name)) return false;
+  void file.text().then((text) => chooseSpec(app, { name: file.name, text }));
+  return true;
+}
+
 function defaultChipId(app: App, spec: QcSpec | null): string {
   const first = app.state.files[0];
   if (!first) return '';

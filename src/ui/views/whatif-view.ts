@@ -95,6 +95,14 @@ function chooseChip(app: App, file: BundledFile): void {
   app.render();
 }
 
+/** A chip description (.json) dropped while this view is shown goes to the sweep, not to the log importer. */
+export function dropOnWhatIf(app: App, list: FileList): boolean {
+  const file = list[0];
+  if (app.state.view !== 'whatif' || list.length !== 1 || !file || !/\.json$/i.test(file.name)) return false;
+  void file.text().then((text) => chooseChip(app, { name: file.name, text }));
+  return true;
+}
+
 export async function computeWhatIf(app: App): Promise<void> {
   const f = whatIfForm;
   if (!f.chip) return;
@@ -261,15 +269,6 @@ export function renderWhatIfView(app: App, root: HTMLElement): void {
   clear(root);
   const f = whatIfForm;
   root.append(viewHead('h-whatif', 'What-if', 'How slow will this set-up be, and what should change? Sweep one design variable of a chip description and compare the predicted settling.'));
-  // Drop a chip description on the view.
-  root.ondragover = (e) => e.preventDefault();
-  root.ondrop = (e) => {
-    const file = e.dataTransfer?.files?.[0];
-    if (!file || !file.name.toLowerCase().endsWith('.json')) return;
-    e.preventDefault();
-    e.stopPropagation();
-    void file.text().then((text) => chooseChip(app, { name: file.name, text }));
-  };
   root.append(formPanel(app));
   if (f.error) root.append(notice('bad', f.error));
   const res = f.result;
