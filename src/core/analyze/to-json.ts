@@ -45,6 +45,7 @@ export function fitJson(fit: TransientFit, samplesPerPoint: number): FitJson {
       ? {
           criterion: fit.orderSelection.criterion,
           chosen_terms: fit.orderSelection.chosenTerms,
+          screened_out: fit.orderSelection.screenedOut ?? null,
           candidates: fit.orderSelection.candidates.map((c) => ({
             terms: c.terms,
             ssr: num(c.ssr),

@@ -78,7 +78,8 @@ export interface FitJson {
   residual_lag1: number | null;
   runs_z: number | null;
   flags: { code: string; message: string }[];
-  order_selection: { criterion: string; chosen_terms: number; candidates: OrderCandidateJson[] } | null;
+  /** `screened_out`: why 2 terms were not fitted (the order screen), else null; that candidate then has null ssr/bic/aicc. */
+  order_selection: { criterion: string; chosen_terms: number; candidates: OrderCandidateJson[]; screened_out: string | null } | null;
   parameter_names: string[];
   correlation: (number | null)[][];
   /** Samples per fitted point (block averaging of long windows; 1 = none). */

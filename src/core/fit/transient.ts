@@ -13,6 +13,7 @@ import { studentTQuantile } from '../stats/student-t';
 import { lag1Autocorrelation, runsTestZ, settlingTime } from './diagnostics';
 import { fitShape, MAX_DEAD_TIME, type ShapeFit } from './engine';
 import type { ModelShape, ScaledWindow } from './exponential-model';
+import { SCREEN_GAIN_FRACTION, screenSecondTerm } from './order-screen';
 import type { Estimate, FitFlag, OrderCandidate, TransientData, TransientFit, TransientFitOptions } from './types';
 
 /** z beyond which the runs test or lag-1 autocorrelation counts as significant (two-sided p < 0.001). */
@@ -135,6 +136,7 @@ export function fitTransient(data: TransientData, options: TransientFitOptions =
   const fits: ShapeFit[] = [];
   const candidates: OrderCandidate[] = [];
   const dropped: { terms: number; bic: number; message: string }[] = [];
+  let screenedOut: string | undefined;
   for (const order of orders) {
     const shape: ModelShape = { terms: order, ...base };
     if (n < parameterCount(shape) + 1 || !(n > 2)) break;
@@ -159,6 +161,13 @@ export function fitTransient(data: TransientData, options: TransientFitOptions =
     const acceptable = fit.converged && (order === 1 || !fit.degenerate);
     if (order > 1 && fit.degenerate && fit.converged) dropped.push({ terms: order, bic, message: `The ${order}-term fit was rejected: its time constants are not distinguishable (${fit.degenerateReason}).` });
     candidates.push({ terms: order, ssr: fit.ssr * prepared.yScale ** 2, dof: fit.nEffective - k, bic, aicc, fTestP, acceptable });
+    if (terms === 'auto' && order === 1 && options.orderScreen !== false) {
+      screenedOut = screenHigherOrders(prepared, fit, robust, engineOpts.dtScaled);
+      if (screenedOut) {
+        candidates.push({ terms: 2, ssr: NaN, dof: fit.nEffective - parameterCount({ terms: 2, ...base }), bic: NaN, aicc: NaN, fTestP: null, acceptable: false });
+        break;
+      }
+    }
   }
 
   if (fits.length === 0) {
@@ -180,7 +189,7 @@ export function fitTransient(data: TransientData, options: TransientFitOptions =
   const chosen = fits[chosenIndex]!;
   const result = buildResult(prepared, chosen, robust);
   if (terms === 'auto') {
-    result.orderSelection = { criterion: 'BIC', candidates, chosenTerms: chosen.shape.terms };
+    result.orderSelection = { criterion: 'BIC', candidates, chosenTerms: chosen.shape.terms, ...(screenedOut ? { screenedOut } : {}) };
     // Flag a rejected order only when BIC would have preferred it: the data ask for more terms than they can resolve.
     const chosenBic = candidates[chosenIndex]!.bic;
     for (const d of dropped) if (d.bic < chosenBic) result.flags.push({ code: 'degenerate-taus', message: d.message });
@@ -188,6 +197,25 @@ export function fitTransient(data: TransientData, options: TransientFitOptions =
     result.flags.push({ code: 'degenerate-taus', message: `The ${chosen.shape.terms} time constants are not distinguishable (${chosen.degenerateReason}); fit fewer terms.` });
   }
   return result;
+}
+
+/**
+ * Why the automatic order choice need not fit 2 (or 3) terms after `fit1`, or undefined when it must:
+ * only for a plain least-squares fit that converged, whose residuals show no structure (runs test and
+ * lag-1 autocorrelation within ±{@link RESIDUAL_STRUCTURE_Z}) and where no second term could gain even
+ * half the SSR reduction a BIC win needs (linearised, order-screen.ts). Such windows chose 1 term anyway;
+ * the screen only saves the 2-term fit, which on single-exponential data is ill-posed and slow.
+ */
+function screenHigherOrders(w: PreparedWindow, fit1: ShapeFit, robust: TransientFit['model']['robust'], dtScaled: number): string | undefined {
+  if (robust !== 'none' || !fit1.converged) return undefined;
+  const n = fit1.rawResiduals.length;
+  const runsZ = runsTestZ(fit1.rawResiduals);
+  const lagZ = lag1Autocorrelation(fit1.rawResiduals) * Math.sqrt(n);
+  if (!(Math.abs(runsZ) <= RESIDUAL_STRUCTURE_Z) || !(Math.abs(lagZ) <= RESIDUAL_STRUCTURE_Z)) return undefined;
+  // τ₂ over the engine's search bounds (Δt/10 … 100 windows, engine.ts).
+  const screen = screenSecondTerm(w.scaled, fit1.shape, fit1.x, fit1.rawResiduals, fit1.ssr, Math.max(dtScaled / 10, 1e-9), 100);
+  if (!(screen.maxGain < SCREEN_GAIN_FRACTION * screen.requiredGain)) return undefined;
+  return `2 terms not fitted: the 1-term residuals are random (runs z = ${runsZ.toFixed(1)}, lag-1 z = ${lagZ.toFixed(1)}) and a second term could lower the SSR by at most ${((100 * screen.maxGain) / fit1.ssr).toFixed(2)} % (linearised), below the ${((100 * screen.requiredGain) / fit1.ssr).toFixed(2)} % a BIC win needs`;
 }
 
 /** SI result from a scaled shape fit (single window). */

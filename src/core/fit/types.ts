@@ -30,6 +30,11 @@ export interface TransientFitOptions {
   noiseSigma?: number;
   /** Cap on optimiser iterations per start. */
   maxIterations?: number;
+  /**
+   * Automatic order only: skip the 2-term fit when the 1-term residuals are random and no second term
+   * could win by BIC (order-screen.ts). Default true; false fits every order (the reference behaviour).
+   */
+  orderScreen?: boolean;
 }
 
 /** A fitted parameter with its uncertainty (SI units, named by the parameter). */
@@ -72,7 +77,10 @@ export interface OrderCandidate {
   aicc: number;
   /** p-value of the F-test of this order against the next lower one (null for 1 term). */
   fTestP: number | null;
-  /** Whether this candidate was usable (converged, non-degenerate). */
+  /**
+   * Whether this candidate was usable (converged, non-degenerate). A 2-term candidate ruled out by the
+   * screen (`orderSelection.screenedOut`) is listed with acceptable false and NaN ssr/bic/aicc (not fitted).
+   */
   acceptable: boolean;
 }
 
@@ -112,7 +120,13 @@ export interface TransientFit {
   t95S: number;
   t99S: number;
   flags: FitFlag[];
-  orderSelection: { criterion: 'BIC'; candidates: OrderCandidate[]; chosenTerms: number } | null;
+  orderSelection: {
+    criterion: 'BIC';
+    candidates: OrderCandidate[];
+    chosenTerms: number;
+    /** Why higher orders were not fitted, when the screen (order-screen.ts) ruled them out; absent otherwise. */
+    screenedOut?: string;
+  } | null;
 }
 
 /** Options of {@link SharedTauFit} fits: as for one window; `noiseSigma`, when given, applies to every window. */
