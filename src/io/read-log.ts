@@ -1,8 +1,9 @@
 /**
  * Reads a log file from disk in chunks and feeds the pure importer (src/core/import). Handles the byte level:
  * missing or unreadable files, UTF-8 / UTF-16 byte-order marks, and progress reporting. Never writes.
+ * UTF-8 files go to the importer as bytes (its tokenizer reads numbers from bytes, no decoding); UTF-16 files
+ * are decoded here.
  */
-import { isAscii } from 'node:buffer';
 import { open, stat } from 'node:fs/promises';
 import { InputError } from '../core/errors';
 import { createLogParser, type ImportOptions, type ImportResult } from '../core/import/index';
@@ -52,7 +53,6 @@ export async function readLogFile(path: string, options: ImportOptions = {}, onP
     const buffer = Buffer.allocUnsafe(CHUNK_BYTES);
     let decoder: TextDecoder | null = null;
     let encoding: 'utf-8' | 'utf-16le' | 'utf-16be' = 'utf-8';
-    let previousEndedAscii = true;
     let done = 0;
     for (;;) {
       let n: number;
@@ -64,17 +64,14 @@ export async function readLogFile(path: string, options: ImportOptions = {}, onP
       if (n === 0) break;
       const bytes = buffer.subarray(0, n);
       if (done === 0) encoding = encodingOf(bytes);
-      // Pure ASCII reads the same in UTF-8 and Latin-1, and Latin-1 decoding is a plain copy (several times
-      // faster). Allowed whenever the decoder holds no partial character (the previous chunk ended in ASCII),
-      // so a µ in the header does not slow down the whole file.
-      if (encoding === 'utf-8' && previousEndedAscii && isAscii(bytes)) {
-        parser.push(bytes.toString('latin1'));
+      // the parser copies what it keeps of a chunk, so the buffer can be reused
+      if (encoding === 'utf-8') {
+        parser.push(bytes);
       } else {
         // ignoreBOM keeps a BOM in the text, so that the importer can report it (and strips it itself)
         decoder ??= new TextDecoder(encoding, { ignoreBOM: true });
         parser.push(decoder.decode(bytes, { stream: true }));
       }
-      previousEndedAscii = (bytes[n - 1] as number) < 0x80;
       done += n;
       onProgress?.(done, size);
     }

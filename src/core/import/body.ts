@@ -15,6 +15,7 @@ import { parseNumberText, splitFields, unquote, withoutTrailingEmpty } from './f
 import { GrowableFloat64 } from './growable';
 import { parseHmsParts, parseIsoDate, parseIsoTime } from './time-text';
 import type { Delimiter, TimeFormat } from './types';
+import { copyBytes, decodeUtf8, encodeUtf8 } from './utf8';
 
 export interface BodyConfig {
   sourceName?: string;
@@ -89,6 +90,10 @@ export class BodyParser {
   private readonly chanIndex: Int32Array;
   private readonly chanFactor: Float64Array;
   private carry = '';
+  /** The cut last line of the previous byte chunk (UTF-8), or null. */
+  private carryBytes: Uint8Array | null = null;
+  /** Every field is a plain number (no text time, no date): the byte tokenizer can read the lines. */
+  readonly takesBytes: boolean;
   private lineNo: number;
   private dataRows = 0;
   private lastT = Number.NEGATIVE_INFINITY;
@@ -123,6 +128,7 @@ export class BodyParser {
     this.timeIdx = cfg.timeIndex ?? -1;
     this.textTimeField = this.numericTime ? -1 : this.timeIdx;
     this.dateField = cfg.dateIndex ?? -1;
+    this.takesBytes = this.textTimeField < 0 && this.dateField < 0;
     // A factor 10^k (mbar → Pa, kPa → Pa, ms → s) is applied by shifting the decimal exponent while reading,
     // so that '0.315068' kPa becomes exactly the double nearest 315.068 Pa (multiplying by 1000 would not).
     this.shift = new Int32Array(cfg.fieldCount);
@@ -139,6 +145,10 @@ export class BodyParser {
 
   /** Feeds the next piece of text (any size; lines may be split across chunks). */
   push(chunk: string): void {
+    if (this.carryBytes) {
+      this.carry = decodeUtf8(this.carryBytes);
+      this.carryBytes = null;
+    }
     if (this.cfg.crOnly) chunk = chunk.replace(/\r/g, '\n');
     let pos = 0;
     if (this.carry.length > 0) {
@@ -164,8 +174,50 @@ export class BodyParser {
     this.carry = chunk.slice(pos);
   }
 
+  /**
+   * Feeds the next piece of the file as UTF-8 bytes (lines and characters may be split across chunks). Only when
+   * {@link takesBytes}. Lines of plain ASCII numbers are read straight from the bytes; any other line (quotes,
+   * empty fields, text, decimal comma in a comma file, non-ASCII) is decoded and read by the careful path.
+   */
+  pushBytes(chunk: Uint8Array): void {
+    const sep = this.cfg.crOnly ? 13 : 10;
+    let pos = 0;
+    if (this.carry.length > 0) {
+      // text pushed before (the rest of the detection sample) ended inside a line: carry it on as bytes
+      this.carryBytes = encodeUtf8(this.carry);
+      this.carry = '';
+    }
+    if (this.carryBytes) {
+      const nl = chunk.indexOf(sep);
+      const head = nl < 0 ? chunk : chunk.subarray(0, nl + 1);
+      const joined = new Uint8Array(this.carryBytes.length + head.length);
+      joined.set(this.carryBytes);
+      joined.set(head, this.carryBytes.length);
+      this.carryBytes = null;
+      if (nl < 0) {
+        this.carryBytes = joined;
+        return;
+      }
+      // the joined line is complete; scanning it cannot leave a carry
+      this.scanBytes(joined, 0);
+      pos = nl + 1;
+    }
+    const rest = this.scanBytes(chunk, pos);
+    if (rest < chunk.length) this.carryBytes = copyBytes(chunk.subarray(rest));
+  }
+
   /** Reads the last line (if the file does not end with a newline) and returns the columns. */
   end(): BodyResult {
+    if (this.carryBytes) {
+      const b = this.carryBytes;
+      this.carryBytes = null;
+      const sep = this.cfg.crOnly ? 13 : 10;
+      // a complete line for the scanner: the cut last line plus a line ending
+      const joined = new Uint8Array(b.length + 1);
+      joined.set(b);
+      joined[b.length] = sep;
+      this.scanBytes(joined, 0);
+    }
     if (this.carry.length > 0) {
       const s = this.carry;
       this.carry = '';
@@ -312,6 +364,208 @@ export class BodyParser {
         while (i < end && s.charCodeAt(i) === SPACE) i++;
         if (i === end) return f === nf;
         if (s.charCodeAt(i) !== delim) return false;
+        i++;
+      }
+    }
+  }
+
+  /**
+   * Reads the complete lines of `b` from `pos` (bytes; every field a plain number) into the columns; returns where
+   * the cut last line starts (b.length when the chunk ends with a line ending). The common row (fast read, time
+   * increasing, room in the columns, no sorting) is stored here with the state in locals; anything else goes
+   * through the same slow path and commit as text.
+   */
+  private scanBytes(b: Uint8Array, pos: number): number {
+    const len = b.length;
+    const sep = this.cfg.crOnly ? 13 : 10;
+    const lf = sep === 10;
+    const row = this.row;
+    const timeIdx = this.timeIdx;
+    const timeShifted = timeIdx >= 0 && this.shift[timeIdx] !== 0;
+    const timeFactor = this.cfg.timeFactor;
+    const rate = this.cfg.sampleRateHz as number;
+    const idx = this.chanIndex;
+    const fac = this.chanFactor;
+    const nc = idx.length;
+    const simpleCommit = this.lines === null;
+    let timeArr = this.timeArr;
+    let cols = this.colArrs;
+    let cap = this.cap;
+    let n = this.n;
+    let lineNo = this.lineNo;
+    let dataRows = this.dataRows;
+    let lastT = this.lastT;
+    let lastLine = this.lastLine;
+    while (pos < len) {
+      const next = this.fastBytes(b, pos, sep);
+      if (next > 0) {
+        const ln = lineNo++;
+        pos = next;
+        let t: number;
+        if (timeIdx < 0) t = dataRows / rate;
+        else t = timeShifted ? (row[timeIdx] as number) : (row[timeIdx] as number) * timeFactor;
+        if (t > lastT && n < cap && simpleCommit) {
+          dataRows++;
+          timeArr[n] = t;
+          for (let k = 0; k < nc; k++) (cols[k] as Float64Array)[n] = (row[idx[k] as number] as number) * (fac[k] as number);
+          n++;
+          lastT = t;
+          lastLine = ln;
+          continue;
+        }
+        this.n = n;
+        this.dataRows = dataRows;
+        this.lastT = lastT;
+        this.lastLine = lastLine;
+        this.commit(ln);
+      } else {
+        const nl = b.indexOf(sep, pos);
+        if (nl < 0) break; // the line goes on in the next chunk
+        const start = pos;
+        const end = lf && nl > start && b[nl - 1] === 13 ? nl - 1 : nl;
+        const ln = lineNo++;
+        pos = nl + 1;
+        if (start === end) continue;
+        this.n = n;
+        this.dataRows = dataRows;
+        this.lastT = lastT;
+        this.lastLine = lastLine;
+        if (this.parseSlow(decodeUtf8(b, start, end), ln) === 'ok') this.commit(ln);
+      }
+      n = this.n;
+      dataRows = this.dataRows;
+      lastT = this.lastT;
+      lastLine = this.lastLine;
+      timeArr = this.timeArr;
+      cols = this.colArrs;
+      cap = this.cap;
+    }
+    this.n = n;
+    this.lineNo = lineNo;
+    this.dataRows = dataRows;
+    this.lastT = lastT;
+    this.lastLine = lastLine;
+    return pos;
+  }
+
+  /**
+   * Reads one line of plain ASCII numbers starting at `start` into this.row (the byte twin of {@link parseFast},
+   * same rules); returns the position after its line ending, or -1 when the line needs the slow path or is cut
+   * at the end of the chunk.
+   */
+  private fastBytes(b: Uint8Array, start: number, sep: number): number {
+    const len = b.length;
+    const nf = this.cfg.fieldCount;
+    const row = this.row;
+    const delim = this.delimCode;
+    const ws = this.whitespace;
+    const dec = this.decCode;
+    const shift = this.shift;
+    let i = start;
+    if (ws) while (i < len && (b[i] === SPACE || b[i] === TAB)) i++;
+    let f = 0;
+    for (;;) {
+      if (f === nf) {
+        // only delimiters and blanks may follow the last field
+        while (i < len) {
+          const c = b[i] as number;
+          if (c === sep) return i + 1;
+          if (c === 13) return i + 1 < len && b[i + 1] === sep ? i + 2 : -1;
+          if (c !== delim && c !== SPACE && c !== TAB) return -1;
+          i++;
+        }
+        return -1;
+      }
+      while (i < len && b[i] === SPACE) i++;
+      const numStart = i;
+      let c = i < len ? (b[i] as number) : -1;
+      let neg = false;
+      if (c === 45) {
+        neg = true;
+        i++;
+      } else if (c === 43) i++;
+      let mant = 0;
+      let sig = 0;
+      let exp10 = 0;
+      let any = false;
+      let exact = true;
+      for (; i < len; i++) {
+        const d = (b[i] as number) - 48;
+        if (d < 0 || d > 9) break;
+        any = true;
+        if (sig < 15) {
+          mant = mant * 10 + d;
+          if (mant !== 0) sig++;
+        } else {
+          exp10++;
+          exact = false;
+        }
+      }
+      if (i < len && b[i] === dec) {
+        i++;
+        for (; i < len; i++) {
+          const d = (b[i] as number) - 48;
+          if (d < 0 || d > 9) break;
+          any = true;
+          if (sig < 15) {
+            mant = mant * 10 + d;
+            exp10--;
+            if (mant !== 0) sig++;
+          } else if (d !== 0) exact = false;
+        }
+      }
+      if (!any || i >= len) return -1;
+      c = b[i] as number;
+      if (c === 101 || c === 69) {
+        i++;
+        let eneg = false;
+        c = i < len ? (b[i] as number) : -1;
+        if (c === 45) {
+          eneg = true;
+          i++;
+        } else if (c === 43) i++;
+        let e = 0;
+        let edigits = 0;
+        for (; i < len; i++) {
+          const d = (b[i] as number) - 48;
+          if (d < 0 || d > 9) break;
+          e = e * 10 + d;
+          edigits++;
+        }
+        if (edigits === 0 || i >= len) return -1;
+        exp10 += eneg ? -e : e;
+      }
+      let v: number;
+      const sh = shift[f] as number;
+      exp10 += sh;
+      if (exact && exp10 >= -22 && exp10 <= 22) {
+        v = exp10 < 0 ? mant / (POW10[-exp10] as number) : mant * (POW10[exp10] as number);
+        if (neg) v = -v;
+      } else {
+        let text = '';
+        for (let k = numStart; k < i; k++) text += String.fromCharCode(b[k] === dec ? 46 : (b[k] as number));
+        v = shiftedNumber(text, sh);
+      }
+      row[f] = v;
+      f++;
+      // i < len here: what follows the number decides
+      c = b[i] as number;
+      if (ws) {
+        if (c === sep) return f === nf ? i + 1 : -1;
+        if (c === 13) return f === nf && i + 1 < len && b[i + 1] === sep ? i + 2 : -1;
+        if (c !== SPACE && c !== TAB) return -1;
+        while (i < len && (b[i] === SPACE || b[i] === TAB)) i++;
+        if (i >= len) return -1;
+        c = b[i] as number;
+        if (c === sep) return f === nf ? i + 1 : -1;
+        if (c === 13) return f === nf && i + 1 < len && b[i + 1] === sep ? i + 2 : -1;
+      } else {
+        while (i < len && b[i] === SPACE) i++;
+        if (i >= len) return -1;
+        c = b[i] as number;
+        if (c === sep) return f === nf ? i + 1 : -1;
+        if (c === 13) return f === nf && i + 1 < len && b[i + 1] === sep ? i + 2 : -1;
+        if (c !== delim) return -1;
         i++;
       }
     }

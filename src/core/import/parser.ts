@@ -1,7 +1,8 @@
 /**
- * The log importer: text chunks in, a {@link Recording} and an {@link ImportReport} out. Pure (no I/O):
- * `src/io/read-log.ts` feeds it a file's chunks. Detection runs once on the first ~64 KB; the rest of the
- * file goes through the fast numeric tokenizer of `body.ts`.
+ * The log importer: text or UTF-8 byte chunks in, a {@link Recording} and an {@link ImportReport} out. Pure (no
+ * I/O): `src/io/read-log.ts` feeds it a file's chunks (bytes for UTF-8 files, so that they need not be decoded).
+ * Detection runs once on the first ~64 KB (as text); the rest of the file goes through the fast numeric
+ * tokenizer of `body.ts`, on the bytes themselves when every column is a plain number.
  */
 import { InputError, type Warning } from '../errors';
 import type { Recording } from '../recording/types';
@@ -10,14 +11,18 @@ import { planColumns, type ColumnPlan } from './columns';
 import { detectLayout, type Layout } from './detect';
 import { parseIsoDate, parseIsoTime } from './time-text';
 import type { ImportOptions, ImportReport } from './types';
+import { copyBytes, decodeUtf8, encodeUtf8, Utf8StreamDecoder } from './utf8';
 
 /** Characters collected before the layout is detected. */
 export const DETECTION_SAMPLE_CHARS = 64 * 1024;
 
 /** A log parser fed chunk by chunk. */
 export interface LogParser {
-  /** Feeds the next piece of the file's text, in order. */
-  push(chunk: string): void;
+  /**
+   * Feeds the next piece of the file, in order: text, or the file's bytes as UTF-8 (a character may be cut
+   * between two byte chunks; do not switch between text and bytes inside a character).
+   */
+  push(chunk: string | Uint8Array): void;
   /** Ends the input; returns the recording and what was recognised. Throws InputError for bad input. */
   finish(): ImportResult;
 }
@@ -30,6 +35,16 @@ export interface ImportResult {
 /** Control characters that never occur in a text log (NUL and C0 codes other than tab, LF, CR, FF). */
 const BINARY_RE = /[\u0000-\u0008\u000E-\u001A\u001C-\u001F]/;
 
+/** The byte twin of BINARY_RE's test, on the first `limit` bytes. */
+function hasBinaryByte(bytes: Uint8Array, limit: number): boolean {
+  const n = Math.min(bytes.length, limit);
+  for (let i = 0; i < n; i++) {
+    const c = bytes[i] as number;
+    if (c <= 8 || (c >= 14 && c <= 26) || (c >= 28 && c <= 31)) return true;
+  }
+  return false;
+}
+
 /** Creates a parser for one log. */
 export function createLogParser(options: ImportOptions = {}): LogParser {
   const file = options.sourceName;
@@ -40,6 +55,9 @@ export function createLogParser(options: ImportOptions = {}): LogParser {
   let layout: Layout | null = null;
   let plan: ColumnPlan | null = null;
   let body: BodyParser | null = null;
+  let decoder: Utf8StreamDecoder | null = null;
+  /** Copies of the bytes behind `pending` while all of it came as bytes (else null): the body then gets bytes. */
+  let pendingBytes: Uint8Array[] | null = [];
 
   const checkText = (text: string): void => {
     const m = BINARY_RE.exec(text);
@@ -88,31 +106,78 @@ export function createLogParser(options: ImportOptions = {}): LogParser {
       sortTime: options.sortTime ?? false,
       dropRepeatedTime: options.dropRepeatedTime ?? false,
     });
+    const head = pending.slice(0, layout.bodyStartOffset);
     const rest = pending.slice(layout.bodyStartOffset);
     pending = '';
-    body.push(rest);
+    const parts = pendingBytes;
+    pendingBytes = null;
+    // hand the body over as bytes when the text before it maps back to bytes exactly (no U+FFFD for bad bytes)
+    if (parts && parts.length > 0 && body.takesBytes && !head.includes('\uFFFD')) {
+      const all = new Uint8Array(parts.reduce((n, p) => n + p.length, 0));
+      let at = 0;
+      for (const p of parts) {
+        all.set(p, at);
+        at += p.length;
+      }
+      if (decoder?.pending) decoder = new Utf8StreamDecoder(); // its held-back bytes are in `all`
+      body.pushBytes(all.subarray(encodeUtf8(head).length + (hadBom ? 3 : 0)));
+    } else body.push(rest);
+  };
+
+  const pushText = (chunk: string, counted: boolean): void => {
+    if (!counted) pendingBytes = null;
+    if (chunk.length === 0) return;
+    if (!started) {
+      started = true;
+      if (chunk.charCodeAt(0) === 0xfeff) {
+        hadBom = true;
+        chunk = chunk.slice(1);
+      }
+    }
+    if (!counted) chars += chunk.length;
+    if (body) {
+      if (chunk.length > 4096 ? BINARY_RE.test(chunk.slice(0, 4096)) : BINARY_RE.test(chunk)) checkText(chunk);
+      body.push(chunk);
+      return;
+    }
+    pending += chunk;
+    if (pending.length >= DETECTION_SAMPLE_CHARS) start(false);
+  };
+
+  const pushBytes = (chunk: Uint8Array): void => {
+    let bytes = chunk;
+    if (bytes.length === 0) return;
+    chars += bytes.length;
+    decoder ??= new Utf8StreamDecoder();
+    // detection works on text: decode only until the body parser exists (cut between characters, so that the
+    // decoder holds nothing back), then hand the rest of the chunk over as bytes
+    let off = 0;
+    while (!body && off < bytes.length) {
+      let cut = Math.min(bytes.length, off + Math.max(4096, DETECTION_SAMPLE_CHARS - pending.length));
+      while (cut < bytes.length && ((bytes[cut] as number) & 0xc0) === 0x80) cut++;
+      const piece = bytes.subarray(off, cut);
+      pendingBytes?.push(copyBytes(piece));
+      pushText(decoder.decode(piece), true);
+      off = cut;
+    }
+    if (off === bytes.length) return;
+    if (off > 0) bytes = bytes.subarray(off);
+    if (body?.takesBytes && !decoder.pending) {
+      if (hasBinaryByte(bytes, 4096)) checkText(decodeUtf8(bytes));
+      body.pushBytes(bytes);
+      return;
+    }
+    // a layout with text times or dates (read from text), or a character cut at the end of the last chunk
+    pushText(decoder.decode(bytes), true);
   };
 
   return {
-    push(chunk: string): void {
-      if (chunk.length === 0) return;
-      if (!started) {
-        started = true;
-        if (chunk.charCodeAt(0) === 0xfeff) {
-          hadBom = true;
-          chunk = chunk.slice(1);
-        }
-      }
-      chars += chunk.length;
-      if (body) {
-        if (chunk.length > 4096 ? BINARY_RE.test(chunk.slice(0, 4096)) : BINARY_RE.test(chunk)) checkText(chunk);
-        body.push(chunk);
-        return;
-      }
-      pending += chunk;
-      if (pending.length >= DETECTION_SAMPLE_CHARS) start(false);
+    push(chunk: string | Uint8Array): void {
+      if (typeof chunk === 'string') pushText(chunk, false);
+      else pushBytes(chunk);
     },
     finish(): ImportResult {
+      if (decoder?.pending) pushText(decoder.decode(new Uint8Array(0), true), true);
       if (!body) start(true);
       const result = (body as BodyParser).end();
       return assemble(layout as Layout, plan as ColumnPlan, result, options, hadBom, chars);
