@@ -29,6 +29,10 @@ export interface AnalyzeCliOptions {
   chipFile?: string;
   /** Upstream resistance R_up, Pa·s/m³ (pressure-driven C with an outlet sensor). */
   upstreamResistancePaSPerM3?: number;
+  /** Pressure-driven: where the flow sensor sits (auto = from the response shape). */
+  flowSensor: 'inlet' | 'outlet' | 'auto';
+  /** One compliant node, or a two-node ladder (2-term fits read as C1, C2, R_a, R_b). */
+  circuit: 'single' | 'ladder';
 }
 
 export const analyzeOptionSpecs: OptionSpecs = {
@@ -54,6 +58,16 @@ export const analyzeOptionSpecs: OptionSpecs = {
     valueName: '<value>',
     description: 'R_up between a pressure source and the compliant node (bare number: Pa·s/m³; or "2 mbar/(uL/min)")',
   },
+  'flow-sensor': {
+    type: 'string',
+    valueName: '<side>',
+    description: 'pressure-driven: where the flow sensor sits, inlet (jumps, then decays) or outlet (rises); default auto (from the response shape, outlet when it cannot tell)',
+  },
+  circuit: {
+    type: 'string',
+    valueName: '<kind>',
+    description: 'single (one compliant node, default) or ladder (two compliant nodes: flow-driven steps fitted with 2 terms give C1, C2, R_a, R_b; --terms defaults to 2)',
+  },
   json: { type: 'boolean', description: 'print the analysis as JSON (SI units; fields in README.md)' },
   out: { type: 'string', valueName: '<file>', description: 'write the output to <file> (atomically) instead of the terminal' },
 };
@@ -78,7 +92,21 @@ export function analyzeOptionsFromValues(values: OptionValues): AnalyzeCliOption
     robust: 'none',
     shared: !booleanOption(values, 'no-shared'),
     json: booleanOption(values, 'json'),
+    flowSensor: 'auto',
+    circuit: 'single',
   };
+  const flowSensor = stringOption(values, 'flow-sensor');
+  if (flowSensor !== undefined) {
+    if (flowSensor !== 'inlet' && flowSensor !== 'outlet' && flowSensor !== 'auto') throw new UsageError(`--flow-sensor must be inlet, outlet or auto (got '${flowSensor}').`);
+    o.flowSensor = flowSensor;
+  }
+  const circuit = stringOption(values, 'circuit');
+  if (circuit !== undefined) {
+    if (circuit !== 'single' && circuit !== 'ladder') throw new UsageError(`--circuit must be single or ladder (got '${circuit}').`);
+    o.circuit = circuit;
+    // A ladder has two time constants: fit two terms unless the user chose the order.
+    if (circuit === 'ladder' && stringOption(values, 'terms') === undefined) o.terms = 2;
+  }
   const setup = stringOption(values, 'setup');
   if (setup !== undefined) {
     if (setup !== 'flow-driven' && setup !== 'pressure-driven') throw new UsageError(`--setup must be flow-driven or pressure-driven (got '${setup}').`);

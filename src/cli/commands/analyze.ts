@@ -47,6 +47,8 @@ Examples:
   lagbench analyze sample-logs/pressure-logger-iso.csv --setup flow-driven --min-dwell 3
   lagbench analyze sample-logs/pressure-logger-iso.csv sample-logs/flow-logger-iso.tsv   (two loggers, merged)
   lagbench analyze pressure-only.csv --steps pump-program.csv   (rows: time_s,flow_setpoint[uL/min])
+  lagbench analyze regulator-run.csv --setup pressure-driven --flow-sensor inlet   (sensor between regulator and chip)
+  lagbench analyze pump-two-chambers.csv --circuit ladder --json   (two compliant nodes: C1, C2, R_a, R_b)
 
 Exit codes: 0 success, 2 bad input or usage (message names the file, line and column).
 `;
@@ -105,7 +107,12 @@ async function analyzeOne(recording: Recording, opts: AnalyzeCliOptions, io: Cli
     defaultFitter,
   );
   // The physics stage (src/core/analyze/physics.ts): R, C, node pressure, nominal, trapped air.
-  return addPhysics(analysis, recording, { chip, upstreamResistancePaSPerM3: opts.upstreamResistancePaSPerM3 });
+  return addPhysics(analysis, recording, {
+    chip,
+    upstreamResistancePaSPerM3: opts.upstreamResistancePaSPerM3,
+    flowSensor: opts.flowSensor,
+    circuit: opts.circuit,
+  });
 }
 
 export const analyzeCommand: Command = {

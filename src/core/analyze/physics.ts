@@ -40,6 +40,11 @@ export interface PhysicsOptions {
   ambientPressurePa?: number;
   /** Pressure-driven: where the flow sensor sits; default 'auto' (from the response shape). */
   flowSensor?: 'inlet' | 'outlet' | 'auto';
+  /**
+   * How to read a step: 'single' (one compliant node, default) or 'ladder' (two compliant nodes, §4.4:
+   * R = R_a + R_b and C = C1 + C2 from a 2-term fit of the node-1 pressure; flow-driven steps only).
+   */
+  circuit?: 'single' | 'ladder';
 }
 
 export interface TrappedAirJson {
@@ -237,9 +242,17 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
       const pressureBefore = response ? preStepLevel(ctx.recording, response, ctx.previousOnsetS, step.start_s) : undefined;
       estimate = estimateFlowDriven({ pressureFit: fit, flowBeforeM3PerS: before, flowAfterM3PerS: after, ...(pressureBefore ? { pressureBefore } : {}) });
       extra.baseline = pressureBefore ? 'mean pressure at the end of the previous level' : "the fit's start level y∞ + Σaᵢ";
+      if (ctx.options.circuit === 'ladder' && fit.terms.length !== 2) {
+        warnings.push({
+          code: 'ladder-needs-two-terms',
+          message: `the two-node (ladder) reading needs a 2-term fit, this step has ${fit.terms.length} term(s); the one-node result is shown (fit with --terms 2).`,
+        });
+      }
       if (fit.terms.length === 2) {
-        // Two τ's at the pump's node: also read them as a two-node ladder (§4.4), beside the 1-node result.
+        // Two τ's at the pump's node: also read them as a two-node ladder (§4.4), beside the 1-node result
+        // (or instead of it, when the user says the set-up is a ladder).
         const ladder = estimateLadder({ pressureFit: fit, drive: { kind: 'flow', flowBeforeM3PerS: before, flowAfterM3PerS: after }, ...(pressureBefore ? { pressureBefore } : {}) });
+        if (ctx.options.circuit === 'ladder') estimate = ladder;
         extra.ladder = {
           node1_compliance_m3_per_Pa: estJson(ladder.node1ComplianceM3PerPa),
           node2_compliance_m3_per_Pa: estJson(ladder.node2ComplianceM3PerPa),
@@ -256,6 +269,12 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
         flowBalance = flowBalanceFor(ctx, step, response);
       }
     } else {
+      if (ctx.options.circuit === 'ladder') {
+        warnings.push({
+          code: 'ladder-not-applicable',
+          message: 'the two-node (ladder) reading needs the pressure at the first node of a flow-driven set-up; this pressure-driven step is read as one compliant node.',
+        });
+      }
       const given = ctx.options.flowSensor && ctx.options.flowSensor !== 'auto' ? ctx.options.flowSensor : null;
       const fromShape = given ? null : sensorFromShape(step);
       const sensor = given ?? fromShape ?? 'outlet';
@@ -302,6 +321,7 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
     return { fields: emptyFields(err.problem), estimate: null, warnings: [{ code: err.code, message: err.problem }] };
   }
   warnings.push(...estimate.warnings);
+  if (estimate.setup.startsWith('ladder')) extra.circuit_choice = 'ladder (two compliant nodes, given by the user)';
   const pAbs = ctx.ambientPa + gaugePa;
   // Secant pressure √(p_a·p_b) (absolute, before and after): a gas pocket stores ΔV = V_atm·p_atm·(1/p_a − 1/p_b),
   // so its step compliance ΔV/Δp is exactly V_atm·p_atm/(p_a·p_b) (Boyle, §3.3; derived here).
