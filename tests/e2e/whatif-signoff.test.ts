@@ -223,9 +223,11 @@ describe.skipIf(!haveBrowser)('what-if view and QC sign-off in Chromium', () => 
     again.close();
 
     await page.fill('#history-lot', 'A');
+    const loads = Number((await page.getAttribute('html', 'data-history-loads')) ?? '0');
     await page.click('#history-show');
+    await page.waitForFunction((k) => Number(document.documentElement.dataset.historyLoads ?? '0') > k, loads);
     await page.waitForSelector('[data-testid="control-chart-resistance"]');
-    await page.evaluate(() => document.querySelector('[aria-label="History filters"]')?.scrollIntoView());
+    await page.evaluate(() => document.querySelector('[data-testid="history-table"]')?.scrollIntoView());
     await shot('history');
   });
 

@@ -153,6 +153,8 @@ async function loadHistory(app: App): Promise<void> {
     const lot = f.lot.trim() || signOff.history.at(-1)?.lot || null;
     signOff.lotReport = lot ? await qc.lotReport(lot) : null;
     signOff.error = null;
+    // Tests and assistive tools can tell a fresh history from the previous one.
+    document.documentElement.dataset.historyLoads = String(Number(document.documentElement.dataset.historyLoads ?? '0') + 1);
   } catch (err) {
     signOff.error = errorText(err);
   }
