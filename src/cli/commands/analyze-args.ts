@@ -33,6 +33,8 @@ export interface AnalyzeCliOptions {
   flowSensor: 'inlet' | 'outlet' | 'auto';
   /** One compliant node, or a two-node ladder (2-term fits read as C1, C2, R_a, R_b). */
   circuit: 'single' | 'ladder';
+  /** Include the Laplace pressure of small bubbles in the air volume from excess compliance. */
+  laplace: boolean;
 }
 
 export const analyzeOptionSpecs: OptionSpecs = {
@@ -68,6 +70,10 @@ export const analyzeOptionSpecs: OptionSpecs = {
     valueName: '<kind>',
     description: 'single (one compliant node, default) or ladder (two compliant nodes: flow-driven steps fitted with 2 terms give C1, C2, R_a, R_b; --terms defaults to 2)',
   },
+  laplace: {
+    type: 'boolean',
+    description: "with --chip: include the surface-tension (Laplace) pressure of a small spherical bubble in the trapped-air volume from excess compliance (the fluid's σ)",
+  },
   json: { type: 'boolean', description: 'print the analysis as JSON (SI units; fields in README.md)' },
   out: { type: 'string', valueName: '<file>', description: 'write the output to <file> (atomically) instead of the terminal' },
 };
@@ -94,6 +100,7 @@ export function analyzeOptionsFromValues(values: OptionValues): AnalyzeCliOption
     json: booleanOption(values, 'json'),
     flowSensor: 'auto',
     circuit: 'single',
+    laplace: booleanOption(values, 'laplace'),
   };
   const flowSensor = stringOption(values, 'flow-sensor');
   if (flowSensor !== undefined) {

@@ -45,6 +45,17 @@ export interface PhysicsOptions {
    * R = R_a + R_b and C = C1 + C2 from a 2-term fit of the node-1 pressure; flow-driven steps only).
    */
   circuit?: 'single' | 'ladder';
+  /**
+   * Trapped air from excess compliance (needs a chip): include the Laplace pressure of a small spherical
+   * bubble, C = V/(p − p_v + 4σ/(3r)) (physics.md §3.3 [D]), with the fluid's surface tension σ.
+   */
+  laplace?: boolean;
+}
+
+/** Surface tension for the Laplace term when the option is on and the fluid has one (else nothing). */
+function laplaceConditions(options: PhysicsOptions, nominal: NominalPrediction): { surfaceTensionNPerM?: number } {
+  const sigma = nominal.fluid.surfaceTensionNPerM;
+  return options.laplace && sigma !== null && sigma > 0 ? { surfaceTensionNPerM: sigma } : {};
 }
 
 export interface TrappedAirJson {
@@ -59,6 +70,8 @@ export interface TrappedAirJson {
   rigid_compliance_ci95?: Ci95;
   steps_used?: number;
   pressure_levels?: number;
+  /** Excess compliance only: whether the small-bubble Laplace term was included (--laplace). */
+  laplace?: boolean;
 }
 
 export interface TrendJson {
@@ -354,7 +367,13 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
   if (ctx.nominal && c && Number.isFinite(pAbs)) {
     const nominalC = ctx.nominal.compliance.totalM3PerPa;
     const excess = excessCompliance(c, { valueM3PerPa: nominalC.nominal, rangeM3PerPa: [nominalC.low, nominalC.high] }, fit.dof);
-    const air = airVolumeFromExcess(excess, { pressureAbsPa: pAbs, ambientPressurePa: ctx.ambientPa, vapourPressurePa: ctx.nominal.fluid.vapourPressurePa ?? 0 });
+    const air = airVolumeFromExcess(excess, {
+      pressureAbsPa: pAbs,
+      ambientPressurePa: ctx.ambientPa,
+      vapourPressurePa: ctx.nominal.fluid.vapourPressurePa ?? 0,
+      ...laplaceConditions(ctx.options, ctx.nominal),
+    });
+    physics.air_volume_laplace = laplaceConditions(ctx.options, ctx.nominal).surfaceTensionNPerM !== undefined;
     physics.excess_compliance_m3_per_Pa = num(excess.excessM3PerPa.value);
     physics.excess_compliance_ci95 = ci(excess.excessM3PerPa.ci95);
     physics.air_volume_m3_at_atm = num(air.volumeM3AtAtm);
@@ -430,6 +449,11 @@ export function addPhysics(analysis: AnalysisJson, recording: Recording, options
     nominal = predictNominal(options.chip, analysis.setup);
     topWarnings.push(...nominal.warnings.map(warningJson));
   }
+  if (options.laplace && !nominal) {
+    topWarnings.push({ code: 'laplace-needs-chip', message: 'The Laplace correction applies to the air volume from excess compliance, which needs a chip description (--chip); not applied.' });
+  } else if (options.laplace && nominal && !(nominal.fluid.surfaceTensionNPerM && nominal.fluid.surfaceTensionNPerM > 0)) {
+    topWarnings.push({ code: 'laplace-no-surface-tension', message: `The fluid (${nominal.fluid.name}) has no known surface tension; the Laplace correction was not applied.` });
+  }
   const steps: StepWithPhysicsJson[] = [];
   const estimates: (CircuitEstimate | null)[] = [];
   let previousOnsetS = 0;
@@ -472,8 +496,9 @@ export function addPhysics(analysis: AnalysisJson, recording: Recording, options
       const pooled: PhysicalEstimate = { value: mean, standardError: 1 / Math.sqrt(sw), ci95: [Number.NaN, Number.NaN], inconclusive: false };
       const cNom = nominal.compliance.totalM3PerPa;
       const excess = excessCompliance(pooled, { valueM3PerPa: cNom.nominal, rangeM3PerPa: [cNom.low, cNom.high] }, dof);
-      const air = airVolumeFromExcess(excess, { pressureAbsPa: pMean, ambientPressurePa: ambientPa, vapourPressurePa: nominal.fluid.vapourPressurePa ?? 0 });
-      candidates.push({ json: excessJson(air, withC.length), warnings: air.warnings });
+      const lap = laplaceConditions(options, nominal);
+      const air = airVolumeFromExcess(excess, { pressureAbsPa: pMean, ambientPressurePa: ambientPa, vapourPressurePa: nominal.fluid.vapourPressurePa ?? 0, ...lap });
+      candidates.push({ json: { ...excessJson(air, withC.length), laplace: lap.surfaceTensionNPerM !== undefined }, warnings: air.warnings });
     }
   }
   const width = (j: TrappedAirJson): number => (j.ci95[0] !== null && j.ci95[1] !== null ? j.ci95[1] - j.ci95[0] : Infinity);
