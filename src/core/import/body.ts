@@ -376,8 +376,9 @@ export class BodyParser {
    * through the same slow path and commit as text.
    */
   private scanBytes(b: Uint8Array, pos: number): number {
-    const len = b.length;
     const sep = this.cfg.crOnly ? 13 : 10;
+    // complete lines only: the last line ending of the chunk bounds every line read below
+    const len = b.lastIndexOf(sep) + 1;
     const lf = sep === 10;
     const row = this.row;
     const timeIdx = this.timeIdx;
@@ -420,7 +421,6 @@ export class BodyParser {
         this.commit(ln);
       } else {
         const nl = b.indexOf(sep, pos);
-        if (nl < 0) break; // the line goes on in the next chunk
         const start = pos;
         const end = lf && nl > start && b[nl - 1] === 13 ? nl - 1 : nl;
         const ln = lineNo++;
@@ -445,7 +445,7 @@ export class BodyParser {
     this.dataRows = dataRows;
     this.lastT = lastT;
     this.lastLine = lastLine;
-    return pos;
+    return Math.max(pos, len);
   }
 
   /**
@@ -454,87 +454,76 @@ export class BodyParser {
    * at the end of the chunk.
    */
   private fastBytes(b: Uint8Array, start: number, sep: number): number {
-    const len = b.length;
-    const nf = this.cfg.fieldCount;
+        const nf = this.cfg.fieldCount;
     const row = this.row;
     const delim = this.delimCode;
     const ws = this.whitespace;
     const dec = this.decCode;
     const shift = this.shift;
     let i = start;
-    if (ws) while (i < len && (b[i] === SPACE || b[i] === TAB)) i++;
+    if (ws) while (b[i] === SPACE || b[i] === TAB) i++;
     let f = 0;
     for (;;) {
       if (f === nf) {
         // only delimiters and blanks may follow the last field
-        while (i < len) {
+        for (;;) {
           const c = b[i] as number;
           if (c === sep) return i + 1;
-          if (c === 13) return i + 1 < len && b[i + 1] === sep ? i + 2 : -1;
+          if (c === 13) return b[i + 1] === sep ? i + 2 : -1;
           if (c !== delim && c !== SPACE && c !== TAB) return -1;
           i++;
         }
-        return -1;
       }
-      while (i < len && b[i] === SPACE) i++;
+      while (b[i] === SPACE) i++;
       const numStart = i;
-      let c = i < len ? (b[i] as number) : -1;
+      let c = b[i] as number;
       let neg = false;
       if (c === 45) {
         neg = true;
         i++;
       } else if (c === 43) i++;
+      // all digits go into one integer; with at most 15 of them it is exact (< 2^53)
       let mant = 0;
-      let sig = 0;
-      let exp10 = 0;
-      let any = false;
-      let exact = true;
-      for (; i < len; i++) {
+      const intStart = i;
+      for (; ; i++) {
         const d = (b[i] as number) - 48;
-        if (d < 0 || d > 9) break;
-        any = true;
-        if (sig < 15) {
-          mant = mant * 10 + d;
-          if (mant !== 0) sig++;
-        } else {
-          exp10++;
-          exact = false;
-        }
+        if (d >>> 0 > 9) break;
+        mant = mant * 10 + d;
       }
-      if (i < len && b[i] === dec) {
+      let digits = i - intStart;
+      let exp10 = 0;
+      if (b[i] === dec) {
         i++;
-        for (; i < len; i++) {
+        const fracStart = i;
+        for (; ; i++) {
           const d = (b[i] as number) - 48;
-          if (d < 0 || d > 9) break;
-          any = true;
-          if (sig < 15) {
-            mant = mant * 10 + d;
-            exp10--;
-            if (mant !== 0) sig++;
-          } else if (d !== 0) exact = false;
+          if (d >>> 0 > 9) break;
+          mant = mant * 10 + d;
         }
+        digits += i - fracStart;
+        exp10 = fracStart - i;
       }
-      if (!any || i >= len) return -1;
+      if (digits === 0) return -1;
       c = b[i] as number;
       if (c === 101 || c === 69) {
         i++;
         let eneg = false;
-        c = i < len ? (b[i] as number) : -1;
+        c = b[i] as number;
         if (c === 45) {
           eneg = true;
           i++;
         } else if (c === 43) i++;
         let e = 0;
-        let edigits = 0;
-        for (; i < len; i++) {
+        const expStart = i;
+        for (; ; i++) {
           const d = (b[i] as number) - 48;
-          if (d < 0 || d > 9) break;
+          if (d >>> 0 > 9) break;
           e = e * 10 + d;
-          edigits++;
         }
-        if (edigits === 0 || i >= len) return -1;
+        if (i === expStart) return -1;
         exp10 += eneg ? -e : e;
       }
+      const exact = digits <= 15;
       let v: number;
       const sh = shift[f] as number;
       exp10 += sh;
@@ -548,23 +537,21 @@ export class BodyParser {
       }
       row[f] = v;
       f++;
-      // i < len here: what follows the number decides
+      // what follows the number decides
       c = b[i] as number;
       if (ws) {
         if (c === sep) return f === nf ? i + 1 : -1;
-        if (c === 13) return f === nf && i + 1 < len && b[i + 1] === sep ? i + 2 : -1;
+        if (c === 13) return f === nf && b[i + 1] === sep ? i + 2 : -1;
         if (c !== SPACE && c !== TAB) return -1;
-        while (i < len && (b[i] === SPACE || b[i] === TAB)) i++;
-        if (i >= len) return -1;
+        while (b[i] === SPACE || b[i] === TAB) i++;
         c = b[i] as number;
         if (c === sep) return f === nf ? i + 1 : -1;
-        if (c === 13) return f === nf && i + 1 < len && b[i + 1] === sep ? i + 2 : -1;
+        if (c === 13) return f === nf && b[i + 1] === sep ? i + 2 : -1;
       } else {
-        while (i < len && b[i] === SPACE) i++;
-        if (i >= len) return -1;
+        while (b[i] === SPACE) i++;
         c = b[i] as number;
         if (c === sep) return f === nf ? i + 1 : -1;
-        if (c === 13) return f === nf && i + 1 < len && b[i + 1] === sep ? i + 2 : -1;
+        if (c === 13) return f === nf && b[i + 1] === sep ? i + 2 : -1;
         if (c !== delim) return -1;
         i++;
       }
