@@ -211,6 +211,67 @@ function flowBalanceFor(ctx: StepContext, step: StepJson, response: Float64Array
   }
 }
 
+/**
+ * Pressure-driven volume balance (node pressure and one flow logged): the flow the sensor does not see
+ * follows from the node pressure through the resistance on its side, both in differences from the
+ * settled pre-step state (so sensor offsets and a hydrostatic back-pressure cancel):
+ * - inlet sensor: Q_out(t) = Q₀ + (p(t) − p₀)/R_down, R_down = Δp_node∞/ΔQ∞;
+ * - outlet sensor: Q_in(t) = Q₀ + (ΔP_drive − (p(t) − p₀))/R_up, R_up = (ΔP_drive − Δp_node∞)/ΔQ∞
+ * (Kirchhoff at the node, physics.md §4.3; derived here). The settled levels are the means of the last
+ * 20 % of the previous level and of the window; the uncertainty of that R is added to the SE of C in
+ * quadrature (C evaluated at R ± SE(R), SE(R) by first-order propagation of the level means' SEs).
+ */
+function pressureDrivenFlowBalance(ctx: StepContext, step: StepJson, flow: Float64Array, nodePa: Float64Array, sensor: 'inlet' | 'outlet'): FlowBalanceEstimate | null {
+  const { timeS } = ctx.recording;
+  const pBefore = preStepLevel(ctx.recording, nodePa, ctx.previousOnsetS, step.start_s);
+  const qBefore = preStepLevel(ctx.recording, flow, ctx.previousOnsetS, step.start_s);
+  const tail = step.end_s - 0.2 * (step.end_s - step.start_s);
+  const pAfter = windowMean(timeS, nodePa, tail, step.end_s);
+  const qAfter = windowMean(timeS, flow, tail, step.end_s);
+  const drive = (step.drive.after ?? Number.NaN) - (step.drive.before ?? Number.NaN);
+  if (!pBefore || !qBefore || pAfter.n < 5 || qAfter.n < 5 || !Number.isFinite(drive)) return null;
+  const dp = pAfter.value - pBefore.value;
+  const dq = qAfter.value - qBefore.value;
+  // A "node" pressure that follows the drive is the source's own pressure, not the compliant node's.
+  if (!(Math.abs(dp) < 0.98 * Math.abs(drive))) return null;
+  const across = sensor === 'inlet' ? dp : drive - dp;
+  const r = across / dq;
+  if (!(r > 0) || !Number.isFinite(r)) return null;
+  const se2 = (e: { standardError?: number }): number => (Number.isFinite(e.standardError) ? (e.standardError as number) ** 2 : 0);
+  const seAcross = Math.sqrt(se2(pAfter) + se2(pBefore));
+  const seDq = Math.sqrt(se2(qAfter) + se2(qBefore));
+  const seR = Math.abs(r) * Math.hypot(seAcross / across, seDq / dq);
+  const idx: number[] = [];
+  for (let i = 0; i < timeS.length; i++) if ((timeS[i] as number) >= step.start_s && (timeS[i] as number) < step.end_s) idx.push(i);
+  if (idx.length < 10) return null;
+  const tS = Float64Array.from(idx, (i) => (timeS[i] as number) - step.start_s);
+  const p = Float64Array.from(idx, (i) => nodePa[i] as number);
+  const q = Float64Array.from(idx, (i) => flow[i] as number);
+  const other = (res: number): Float64Array =>
+    Float64Array.from(idx, (i) => {
+      const rise = (nodePa[i] as number) - pBefore.value;
+      return sensor === 'inlet' ? qBefore.value + rise / res : qBefore.value + (drive - rise) / res;
+    });
+  const balance = (res: number): FlowBalanceEstimate =>
+    sensor === 'inlet'
+      ? complianceFromFlowBalance({ tS, pressurePa: p, flowInM3PerS: q, flowOutM3PerS: other(res) })
+      : complianceFromFlowBalance({ tS, pressurePa: p, flowInM3PerS: other(res), flowOutM3PerS: q });
+  try {
+    const mid = balance(r);
+    if (!(seR > 0)) return mid;
+    const spread = Math.abs(balance(r + seR).complianceM3PerPa.value - balance(Math.max(r - seR, r / 2)).complianceM3PerPa.value) / 2;
+    const c = mid.complianceM3PerPa;
+    const se = Math.hypot(c.standardError, spread);
+    const scale = c.standardError > 0 ? se / c.standardError : 1;
+    const half = [(c.value - c.ci95[0]) * scale, (c.ci95[1] - c.value) * scale];
+    const ci95: [number, number] = [c.value - (half[0] as number), c.value + (half[1] as number)];
+    return { ...mid, complianceM3PerPa: { ...c, standardError: se, ci95, inconclusive: !(ci95[0] > 0) || !(ci95[1] / ci95[0] <= 10) } };
+  } catch (err) {
+    if (err instanceof InputError) return null;
+    throw err;
+  }
+}
+
 function emptyFields(reason: string): StepPhysicsFields {
   return {
     resistance_Pa_s_per_m3: null,
@@ -314,6 +375,10 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
       extra.downstream_resistance_Pa_s_per_m3 = estJson(pd.downstreamResistancePaSPerM3);
       extra.compliance_lower_bound_m3_per_Pa = num(pd.complianceLowerBoundM3PerPa);
       const pressure = ctx.recording.channels.find((c) => c.quantity === 'pressure');
+      if (pressure && response) {
+        flowBalance = pressureDrivenFlowBalance(ctx, step, response, pressure.values, sensor);
+        if (flowBalance) extra.flow_balance_resistance_from = sensor === 'inlet' ? 'R_down from the settled node pressure and flow' : 'R_up from the settled drive, node pressure and flow';
+      }
       if (pressure) {
         gaugePa = windowMean(ctx.recording.timeS, pressure.values, step.start_s, step.end_s).value;
         nodeBeforePa = preStepLevel(ctx.recording, pressure.values, ctx.previousOnsetS, step.start_s)?.value ?? Number.NaN;
