@@ -52,7 +52,8 @@ function resultPanel(fv: StepFitView): HTMLElement {
     fit.flags.length ? el('div', {}, el('h3', { text: `Fit-quality flags (${fit.flags.length})` }), el('ul', { class: 'warn-list', 'data-testid': 'fit-flags' }, ...fit.flags.map((f) => el('li', {}, el('span', { class: 'badge warn', text: f.code }), ' ', f.message)))) : el('p', { class: 'small muted', text: 'No fit-quality flags.' }),
     fit.orderSelection ? el('details', {}, el('summary', { text: 'Model order (BIC, F-test)' }), el('table', {},
       el('thead', {}, el('tr', {}, ...['Terms', 'BIC', 'AICc', 'F-test p', 'Usable'].map((h) => el('th', { text: h })))),
-      el('tbody', {}, ...fit.orderSelection.candidates.map((c) => el('tr', {}, el('td', { text: String(c.terms) + (c.terms === fit.orderSelection?.chosenTerms ? ' ✓' : '') }), el('td', { class: 'num', text: fmt(c.bic, 6) }), el('td', { class: 'num', text: fmt(c.aicc, 6) }), el('td', { class: 'num', text: c.fTestP === null ? '—' : fmt(c.fTestP, 3) }), el('td', { text: c.acceptable ? 'yes' : 'no' })))))) : null,
+      el('tbody', {}, ...fit.orderSelection.candidates.map((c) => el('tr', {}, el('td', { text: String(c.terms) + (c.terms === fit.orderSelection?.chosenTerms ? ' ✓' : '') }), el('td', { class: 'num', text: fmt(c.bic, 6) }), el('td', { class: 'num', text: fmt(c.aicc, 6) }), el('td', { class: 'num', text: c.fTestP === null ? '—' : fmt(c.fTestP, 3) }), el('td', { text: c.acceptable ? 'yes' : Number.isNaN(c.bic) ? 'not fitted' : 'no' }))))),
+      fit.orderSelection.screenedOut ? el('p', { class: 'small muted', text: `Higher orders not fitted: ${fit.orderSelection.screenedOut}` }) : null) : null,
     warningsList(fv.warnings.filter((w) => !fit.flags.some((f) => w.code === f.code))),
     fv.notes.length ? el('ul', { class: 'warn-list muted' }, ...fv.notes.map((n) => el('li', { text: n }))) : null,
   );
