@@ -29,6 +29,18 @@ export default tseslint.config(
     },
   },
   {
+    files: ['src/report/**/*.ts'],
+    rules: {
+      'no-console': 'error',
+      '@typescript-eslint/no-restricted-imports': ['error', {
+        patterns: [
+          layer('src/report is pure: no Node built-ins.', nodeBuiltins),
+          layer('src/report may import only src/core.', ['**/io/**', '**/cli/**', '**/ui/**', '**/electron/**', 'electron', 'better-sqlite3']),
+        ],
+      }],
+    },
+  },
+  {
     files: ['src/io/**/*.ts'],
     rules: {
       '@typescript-eslint/no-restricted-imports': ['error', {
