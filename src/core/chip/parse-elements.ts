@@ -2,7 +2,7 @@
 import type { InputError } from '../errors';
 import { findMaterial, MATERIAL_IDS, shoreAToModulusPa } from '../nominal/materials';
 import type { ValueRange } from '../nominal/range';
-import type { LocatedJson } from './located-json';
+import type { LocatedJson } from '../json/located-json';
 import type { DocumentReader, ObjectReader } from './reader';
 import type { ElasticMaterial, ElementOrigin, PathElement } from './types';
 

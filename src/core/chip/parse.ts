@@ -6,7 +6,7 @@ import { InputError } from '../errors';
 import { FLUID_PRESETS, type FluidPresetName, type FluidSpec } from '../fluids/types';
 import { resolveFluid } from '../fluids/presets';
 import type { PressureRatingsPa, RatedPart } from '../safety';
-import { parseLocatedJson, type LocatedJson } from './located-json';
+import { parseLocatedJson, type LocatedJson } from '../json/located-json';
 import { readMaterial, readSeries } from './parse-elements';
 import { DocumentReader, type ObjectReader } from './reader';
 import type { ChipBody, ChipDescription, PathElement, PathSection } from './types';

@@ -4,7 +4,7 @@
  */
 import { InputError } from '../errors';
 import type { ValueRange } from '../nominal/range';
-import type { JsonPosition, LocatedJson } from './located-json';
+import type { JsonPosition, LocatedJson } from '../json/located-json';
 import { parseQuantity, UNIT_EXAMPLES, type Dimension } from './quantity';
 
 type ObjectNode = Extract<LocatedJson, { kind: 'object' }>;

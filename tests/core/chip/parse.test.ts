@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { InputError } from '../../../src/core/errors';
 import { ChipDescriptionError, parseChipDescription } from '../../../src/core/chip/parse';
-import { parseLocatedJson } from '../../../src/core/chip/located-json';
+import { parseLocatedJson } from '../../../src/core/json/located-json';
 
 /** Runs the parser and returns the error it throws (fails the test when none). */
 function errorOf(text: string): InputError {

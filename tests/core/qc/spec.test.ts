@@ -117,3 +117,18 @@ describe('parseQcSpec', () => {
     expect(() => parseQcSpec(minimal('{ "t95": { "unit": "s", "max": 20 } }', ',\n "fit_quality": { "reject_flags": ["wobbly"] }'))).toThrow(/Unknown fit flag/);
   });
 });
+
+describe('parseJsonLocated (shared located parser)', () => {
+  it('parseJsonLocated keeps a "__proto__" key as an own property, as JSON.parse does (ECMA-262 JSON.parse as reference)', () => {
+    const text = '{"__proto__": {"polluted": 1}}';
+    const doc = parseJsonLocated(text);
+    expect(doc.value).toEqual(JSON.parse(text));
+    expect(Object.getPrototypeOf(doc.value)).toBe(Object.prototype);
+  });
+
+  it('parseJsonLocated refuses nesting deeper than 200 levels with a located error instead of a stack overflow', () => {
+    const e = errorOf(() => parseJsonLocated('['.repeat(5000) + ']'.repeat(5000), 'deep.json'));
+    expect(e.code).toBe('json-syntax');
+    expect(e.location).toMatchObject({ file: 'deep.json', line: 1, column: 201 }); // counted: the 201st '[' opens level 201
+  });
+});

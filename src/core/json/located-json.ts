@@ -1,7 +1,9 @@
 /**
  * A small JSON parser that remembers where every value and key starts (1-based line and column),
- * so that schema errors can point at the offending value, not just its JSON path.
- * Strict RFC 8259 JSON; a leading byte-order mark is skipped.
+ * so that schema errors can point at the offending value, not just its JSON path. Shared by every
+ * JSON input Lagbench validates (chip descriptions, QC specs). `JSON.parse` gives neither value
+ * positions nor reliable syntax positions across engines.
+ * Strict RFC 8259 JSON; a leading byte-order mark is skipped; nesting deeper than 200 levels is refused.
  */
 import { InputError } from '../errors';
 
@@ -20,21 +22,25 @@ export type LocatedJson =
 
 const ESCAPES: Record<string, string> = { '"': '"', '\\': '\\', '/': '/', b: '\b', f: '\f', n: '\n', r: '\r', t: '\t' };
 
+/** Deepest nesting accepted; deeper documents are refused rather than overflowing the stack. */
+const MAX_DEPTH = 200;
+
 class Parser {
   private i = 0;
+  private depth = 0;
   private line = 1;
   private col = 1;
 
   constructor(
     private readonly text: string,
-    private readonly file: string,
+    private readonly file: string | undefined,
   ) {
     if (text.charCodeAt(0) === 0xfeff) this.i = 1;
   }
 
   parseDocument(): LocatedJson {
     this.skipSpace();
-    if (this.i >= this.text.length) this.fail('The file is empty', 'Write a JSON object describing the chip (see docs/chip-description.md)');
+    if (this.i >= this.text.length) this.fail('The file is empty', 'Write a JSON object (the format is described in docs/)');
     const value = this.parseValue();
     this.skipSpace();
     if (this.i < this.text.length) this.fail(`Unexpected ${this.describe()} after the end of the JSON value`, 'Remove it, or wrap everything in one object');
@@ -46,7 +52,7 @@ class Parser {
   }
 
   private fail(problem: string, hint: string, pos: JsonPosition = this.here()): never {
-    throw new InputError('json-syntax', `JSON syntax error: ${problem}`, hint, { file: this.file, line: pos.line, column: pos.column });
+    throw new InputError('json-syntax', `JSON syntax error: ${problem}`, hint, { ...(this.file !== undefined ? { file: this.file } : {}), line: pos.line, column: pos.column });
   }
 
   private describe(): string {
@@ -80,8 +86,12 @@ class Parser {
   private parseValue(): LocatedJson {
     const pos = this.here();
     const c = this.text[this.i];
-    if (c === '{') return this.parseObject(pos);
-    if (c === '[') return this.parseArray(pos);
+    if (c === '{' || c === '[') {
+      if (++this.depth > MAX_DEPTH) this.fail(`the document nests deeper than ${MAX_DEPTH} levels`, 'Flatten the structure');
+      const node = c === '{' ? this.parseObject(pos) : this.parseArray(pos);
+      this.depth--;
+      return node;
+    }
     if (c === '"') return { kind: 'string', pos, value: this.parseString() };
     if (c === '-' || (c !== undefined && c >= '0' && c <= '9')) return this.parseNumber(pos);
     for (const [word, node] of [
@@ -209,6 +219,6 @@ class Parser {
 }
 
 /** Parses JSON text, keeping positions. Throws InputError('json-syntax') located at line:column. */
-export function parseLocatedJson(text: string, file: string): LocatedJson {
+export function parseLocatedJson(text: string, file?: string): LocatedJson {
   return new Parser(text, file).parseDocument();
 }
