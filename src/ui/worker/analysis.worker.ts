@@ -47,11 +47,15 @@ function decoderFor(bytes: Uint8Array): TextDecoder {
 }
 
 function importOne(name: string, bytes: Uint8Array, options: Parameters<typeof createLogParser>[0], progress: (done: number) => void): { recording: Recording; report: ImportReport } {
-  const parser = createLogParser({ ...options, sourceName: name });
+  const parser = createLogParser({ ...options, sourceName: name, sizeHintChars: bytes.length });
   const decoder = decoderFor(bytes);
+  // UTF-8 goes to the importer as bytes (its byte tokenizer skips decoding, as readLogFile does);
+  // other encodings are decoded here first.
+  const asBytes = decoder.encoding === 'utf-8';
   for (let off = 0; off < bytes.length; off += CHUNK_BYTES) {
     const end = Math.min(bytes.length, off + CHUNK_BYTES);
-    parser.push(decoder.decode(bytes.subarray(off, end), { stream: end < bytes.length }));
+    const chunk = bytes.subarray(off, end);
+    parser.push(asBytes ? chunk : decoder.decode(chunk, { stream: end < bytes.length }));
     progress(end);
   }
   return parser.finish();
