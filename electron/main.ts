@@ -5,9 +5,10 @@
  */
 import { app, BrowserWindow, dialog, ipcMain, Menu, protocol, session, type MenuItemConstructorOptions } from 'electron';
 import { mkdirSync, readFileSync } from 'node:fs';
-import { readFile, stat } from 'node:fs/promises';
+import { readFile } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
 import { writeFileAtomic } from '../src/io/atomic-write';
+import { fileSizeBytes, readFileBytes } from '../src/io/read-bytes';
 import { CONTENT_SECURITY_POLICY } from './csp';
 import { MENU_EVENT_CHANNEL, type MenuCommand, type MenuEvent, type RecentEntry } from './ipc';
 import { buildMenuTemplate } from './menu';
@@ -128,8 +129,8 @@ app.whenReady().then(() => {
       showSaveDialog: (o) => (mainWindow ? dialog.showSaveDialog(mainWindow, o) : dialog.showSaveDialog(o)),
     },
     files: {
-      sizeOf: async (p) => (await stat(p)).size,
-      readBytes: async (p) => new Uint8Array(await readFile(p)),
+      sizeOf: fileSizeBytes,
+      readBytes: readFileBytes,
       writeAtomic: (p, text) => writeFileAtomic(p, text),
     },
     recent: createRecentStore(),

@@ -4,6 +4,7 @@
  * UTF-8 files go to the importer as bytes (its tokenizer reads numbers from bytes, no decoding); UTF-16 files
  * are decoded here.
  */
+import { fileError } from './file-errors';
 import { open, stat } from 'node:fs/promises';
 import { InputError } from '../core/errors';
 import { createLogParser, type ImportOptions, type ImportResult } from '../core/import/index';
@@ -13,14 +14,6 @@ export type ProgressCallback = (bytesDone: number, bytesTotal: number) => void;
 
 /** Bytes read per chunk (papaparse's streaming default is similar; 4 MB measured well here). */
 export const CHUNK_BYTES = 4 * 1024 * 1024;
-
-function fileError(path: string, err: unknown): InputError {
-  const code = (err as NodeJS.ErrnoException | undefined)?.code;
-  if (code === 'ENOENT') return new InputError('file-not-found', 'The file does not exist', 'Check the path and the spelling of the file name', { file: path });
-  if (code === 'EISDIR') return new InputError('is-a-directory', 'This is a folder, not a log file', 'Give the path of a log file inside it', { file: path });
-  if (code === 'EACCES' || code === 'EPERM') return new InputError('file-unreadable', 'The file cannot be read (permission denied)', 'Check the file\'s permissions, or copy it somewhere you can read', { file: path });
-  return new InputError('file-unreadable', `The file cannot be read (${code ?? String(err)})`, 'Check that the file is accessible and not locked by another program', { file: path });
-}
 
 /** The text encoding announced by a byte-order mark, or UTF-8. */
 function encodingOf(head: Uint8Array): 'utf-8' | 'utf-16le' | 'utf-16be' {
