@@ -33,6 +33,8 @@ export interface AnalyzeCliOptions {
   flowSensor: 'inlet' | 'outlet' | 'auto';
   /** One compliant node, or a two-node ladder (2-term fits read as C1, C2, R_a, R_b). */
   circuit: 'single' | 'ladder';
+  /** Ladder: the node the pressure was sensed at (inlet = pump-side node 1, default; chip = node 2). */
+  pressureAt: 'inlet' | 'chip';
   /** Include the Laplace pressure of small bubbles in the air volume from excess compliance. */
   laplace: boolean;
 }
@@ -70,6 +72,12 @@ export const analyzeOptionSpecs: OptionSpecs = {
     valueName: '<kind>',
     description: 'single (one compliant node, default) or ladder (two compliant nodes: flow-driven steps fitted with 2 terms give C1, C2, R_a, R_b; --terms defaults to 2)',
   },
+  'pressure-at': {
+    type: 'string',
+    valueName: '<node>',
+    description:
+      'with --circuit ladder: where the pressure was sensed, inlet (default: the pump-side node 1; gives C1, C2, R_a, R_b) or chip (node 2: only R_b and the τ\'s are identifiable, C is not reported; docs/setups.md §4)',
+  },
   laplace: {
     type: 'boolean',
     description: "with --chip: include the surface-tension (Laplace) pressure of a small spherical bubble in the trapped-air volume from excess compliance (the fluid's σ)",
@@ -100,6 +108,7 @@ export function analyzeOptionsFromValues(values: OptionValues): AnalyzeCliOption
     json: booleanOption(values, 'json'),
     flowSensor: 'auto',
     circuit: 'single',
+    pressureAt: 'inlet',
     laplace: booleanOption(values, 'laplace'),
   };
   const flowSensor = stringOption(values, 'flow-sensor');
@@ -113,6 +122,12 @@ export function analyzeOptionsFromValues(values: OptionValues): AnalyzeCliOption
     o.circuit = circuit;
     // A ladder has two time constants: fit two terms unless the user chose the order.
     if (circuit === 'ladder' && stringOption(values, 'terms') === undefined) o.terms = 2;
+  }
+  const pressureAt = stringOption(values, 'pressure-at');
+  if (pressureAt !== undefined) {
+    if (pressureAt !== 'inlet' && pressureAt !== 'chip') throw new UsageError(`--pressure-at must be inlet or chip (got '${pressureAt}').`);
+    if (o.circuit !== 'ladder') throw new UsageError('--pressure-at applies to --circuit ladder only (one node has only one pressure).');
+    o.pressureAt = pressureAt;
   }
   const setup = stringOption(values, 'setup');
   if (setup !== undefined) {

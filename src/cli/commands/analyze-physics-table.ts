@@ -28,7 +28,12 @@ export function renderPhysicsSection(a: AnalysisWithPhysicsJson): string {
     ['step', `R [${u.resistance.symbol}] (95 % CI)`, `C [${u.compliance.symbol}] (95 % CI)`, `p_abs [${u.pressure.symbol}]`, 'circuit'],
   ];
   for (const s of a.steps) {
-    const inconclusive = s.physics.compliance_inconclusive === true || s.physics.resistance_inconclusive === true ? ' (inconclusive)' : '';
+    const inconclusive =
+      s.physics.non_physical === true
+        ? ' (non-physical: model does not fit)'
+        : s.physics.compliance_inconclusive === true || s.physics.resistance_inconclusive === true
+          ? ' (inconclusive)'
+          : '';
     rows.push([
       String(s.index),
       withCi(s.resistance_Pa_s_per_m3, s.resistance_ci95, u.resistance),

@@ -49,6 +49,7 @@ Examples:
   lagbench analyze pressure-only.csv --steps pump-program.csv   (rows: time_s,flow_setpoint[uL/min])
   lagbench analyze regulator-run.csv --setup pressure-driven --flow-sensor inlet   (sensor between regulator and chip)
   lagbench analyze pump-two-chambers.csv --circuit ladder --json   (two compliant nodes: C1, C2, R_a, R_b)
+  lagbench analyze chip-node.csv --circuit ladder --pressure-at chip   (sensor at the chip node: R_b and τ's only)
   lagbench analyze bubble-run.csv --chip chip.json --laplace   (small-bubble surface tension in the air volume)
 
 Exit codes: 0 success, 2 bad input or usage (message names the file, line and column).
@@ -113,6 +114,7 @@ async function analyzeOne(recording: Recording, opts: AnalyzeCliOptions, io: Cli
     upstreamResistancePaSPerM3: opts.upstreamResistancePaSPerM3,
     flowSensor: opts.flowSensor,
     circuit: opts.circuit,
+    pressureAt: opts.pressureAt,
     laplace: opts.laplace,
   });
 }

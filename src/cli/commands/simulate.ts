@@ -39,6 +39,7 @@ const specs: OptionSpecs = {
   bubble: { type: 'string', valueName: '<volume>', description: 'extra trapped air at the compliant node, volume at 1 atm, e.g. "2 uL"' },
   'outlet-height': { type: 'string', valueName: '<h>', description: 'outlet liquid surface above the node, e.g. "10 cm" (hydrostatic back-pressure)' },
   nodes: { type: 'string', valueName: '<n>', description: 'one (default: all compliance at one node) or two (upstream and chip compliance apart: a ladder)' },
+  'pressure-at': { type: 'string', valueName: '<node>', description: 'with --nodes two: the node the pressure sensor reads, inlet (default: the pump-side node, what analyze --circuit ladder needs) or chip' },
   'flow-sensor': { type: 'string', valueName: '<where>', description: 'outlet (default), inlet or none' },
   'flow-out': { type: 'string', valueName: '<log>', description: 'write the flow on a second logger to this file (own rate and clock)' },
   'flow-rate': { type: 'string', valueName: '<Hz>', description: 'sample rate of the second logger (default: half of --sample-rate)' },
@@ -60,6 +61,11 @@ Program file (CSV): the first row at time 0 sets the starting level; later rows 
   0,0
   10,5
   70,10,2
+
+Two nodes (--nodes two): the upstream compliance (syringe, tubing) sits at the pump-side inlet node and the
+chip's at the chip node (a ladder, docs/setups.md §4). The pressure is logged at the inlet node unless
+--pressure-at chip; truth.json records it as "pressure_at". 'analyze --circuit ladder' needs the inlet
+(node-1) pressure: from the chip-node pressure the ladder elements cannot all be identified.
 
 Options:
 ${formatOptionHelp(specs)}
@@ -115,6 +121,9 @@ export const simulateCommand: Command = {
     if (!NOISE.includes(noise)) throw new UsageError(`unknown --noise '${noise}'; use ${NOISE.join(', ')}`, 'simulate');
     const nodes = stringOption(values, 'nodes') ?? 'one';
     if (nodes !== 'one' && nodes !== 'two') throw new UsageError(`unknown --nodes '${nodes}'; use one or two`, 'simulate');
+    const pressureAt = stringOption(values, 'pressure-at') ?? 'inlet';
+    if (pressureAt !== 'inlet' && pressureAt !== 'chip') throw new UsageError(`unknown --pressure-at '${pressureAt}'; use inlet or chip`, 'simulate');
+    if (nodes === 'one' && stringOption(values, 'pressure-at') !== undefined) throw new UsageError('--pressure-at needs --nodes two (one node has only one pressure)', 'simulate');
     const flowSensor = stringOption(values, 'flow-sensor') ?? 'outlet';
     if (flowSensor !== 'outlet' && flowSensor !== 'inlet' && flowSensor !== 'none') throw new UsageError(`unknown --flow-sensor '${flowSensor}'; use outlet, inlet or none`, 'simulate');
     const seed = numberOption(values, 'seed') ?? 1;
@@ -147,6 +156,7 @@ export const simulateCommand: Command = {
       fileNames: flowOut ? [basename(outArg), basename(flowOut)] : [basename(outArg)],
       build: {
         nodes,
+        pressureAt,
         ...(sourceLag !== undefined ? { sourceLagS: sourceLag } : {}),
         ...(bubble !== undefined ? { extraGasAtAtmM3: bubble } : {}),
         ...(outletHeight !== undefined ? { outletHeightM: outletHeight } : {}),
@@ -183,7 +193,8 @@ export const simulateCommand: Command = {
       `True C at ${f(t.operating_pressure_Pa, u.pressure)} gauge: ${f(t.compliance_m3_per_Pa.total_at_operating_pressure, u.compliance)} (gas ${f(t.compliance_m3_per_Pa.gas_at_operating_pressure, u.compliance)})`,
       `Trapped air: ${formatNumber(t.trapped_air.volume_m3_at_atm * 1e9, 4)} µL at 1 atm`,
       `Time constants at the operating pressure: ${t.tau_s.map((x) => `${formatNumber(x, 4)} s`).join(', ')}; t95 ≈ ${formatNumber(t.t95_s, 4)} s`,
-      `Steps: ${t.steps.length}; node pressure up to ${f(Math.max(0, ...t.steps.map((s) => Math.max(s.node_pressure_after_Pa, s.node_pressure_before_Pa))), u.pressure)}`,
+      ...(t.pressure_at === 'node' ? [] : [`Pressure logged at the ${t.pressure_at} node (${t.pressure_at === 'inlet' ? 'pump side: node 1 of the ladder' : 'chip side: node 2 of the ladder'})`]),
+      `Steps: ${t.steps.length}; sensed pressure up to ${f(Math.max(0, ...t.steps.map((s) => Math.max(s.node_pressure_after_Pa, s.node_pressure_before_Pa))), u.pressure)}`,
       '',
       PRESSURE_SAFETY_CAUTION,
     ];

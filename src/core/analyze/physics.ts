@@ -46,6 +46,11 @@ export interface PhysicsOptions {
    */
   circuit?: 'single' | 'ladder';
   /**
+   * Ladder: which node the logged pressure was sensed at. 'inlet' (default): node 1, the pump side, where the
+   * full inverse applies. 'chip': node 2, from which only R_b and the τ's are identifiable (docs/setups.md §4).
+   */
+  pressureAt?: 'inlet' | 'chip';
+  /**
    * Trapped air from excess compliance (needs a chip): include the Laplace pressure of a small spherical
    * bubble, C = V/(p − p_v + 4σ/(3r)) (physics.md §3.3 [D]), with the fluid's surface tension σ.
    */
@@ -325,7 +330,8 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
       if (fit.terms.length === 2) {
         // Two τ's at the pump's node: also read them as a two-node ladder (§4.4), beside the 1-node result
         // (or instead of it, when the user says the set-up is a ladder).
-        const ladder = estimateLadder({ pressureFit: fit, drive: { kind: 'flow', flowBeforeM3PerS: before, flowAfterM3PerS: after }, ...(pressureBefore ? { pressureBefore } : {}) });
+        const sensedNode = ctx.options.pressureAt ?? 'inlet';
+        const ladder = estimateLadder({ pressureFit: fit, drive: { kind: 'flow', flowBeforeM3PerS: before, flowAfterM3PerS: after }, sensedNode, ...(pressureBefore ? { pressureBefore } : {}) });
         if (ctx.options.circuit === 'ladder') estimate = ladder;
         extra.ladder = {
           node1_compliance_m3_per_Pa: estJson(ladder.node1ComplianceM3PerPa),
@@ -333,6 +339,7 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
           resistance_between_nodes_Pa_s_per_m3: estJson(ladder.resistanceBetweenNodesPaSPerM3),
           outlet_resistance_Pa_s_per_m3: estJson(ladder.outletResistancePaSPerM3),
           consistent: !ladder.warnings.some((w) => w.code === 'ladder-inconsistent'),
+          pressure_at: sensedNode,
           note: 'The 2-term fit read as pump → C1 → R_a → C2 → R_b → outlet (docs/setups.md §4); meaningful only if the set-up has two compliant nodes.',
         };
       }
@@ -416,6 +423,8 @@ function stepPhysics(step: StepJson, setup: AnalysisJson['setup'], ctx: StepCont
     resistance_inconclusive: r ? r.inconclusive : true,
     compliance_se: num(c?.standardError),
     compliance_inconclusive: c ? c.inconclusive : true,
+    // R or C ≤ 0: physically impossible, the model does not fit this step (warning code 'non-physical').
+    non_physical: warnings.some((w) => w.code === 'non-physical'),
     secant_pressure_abs_Pa: num(secantPAbs),
     ...extra,
     flow_balance: flowBalance

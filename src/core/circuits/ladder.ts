@@ -25,6 +25,20 @@
  *   S = R2 + R3 = G·R1/(1 − G), R_s = R1 + S, M = τz·S, C1 = b₂R_s/(R1M),
  *   R3C2 = (b₁R_s − R1C1S − M)/R1, then R2, R3, C2 as above.
  * All uncertainties by the delta method with the fit's covariance (2-term fit required).
+ *
+ * Pressure sensed at node 2 (the chip node) instead, flow source (derived here the same way): from
+ * node 2, P₁ = P₂(R2 + R3 + sR2R3C2)/R3 and the flow through R2 is P₂(1 + sR3C2)/R3; Kirchhoff at
+ * node 1, ΔQ = sC1P₁ + P₂(1 + sR3C2)/R3, gives
+ *
+ *   P₂(s)/ΔQ = R3 / (1 + s·b₁ + s²·b₂)        (same b₁, b₂ as above; no zero)
+ *
+ * so the step response has aᵢ = −Δy∞·τᵢ/(τᵢ − τⱼ): p₂ starts with zero value and zero slope,
+ * a₁/τ₁ + a₂/τ₂ = 0 (physics.md §4.4). The amplitudes therefore carry no information beyond the
+ * τ's, and the observables are three — R3 = Δp∞/ΔQ, b₁ = τ₁ + τ₂, b₂ = τ₁τ₂ — for four unknowns
+ * (R2, R3, C1, C2): C1, C2 and R2 are not identifiable from the chip-node pressure alone (one known
+ * R2 or C1 still leaves a quadratic with two positive roots). `estimateLadder` with
+ * `sensedNode: 'chip'` reports R_b = R3 and the τ's, C1, C2, R_a as not determined, and the
+ * zero-slope residual (a₁/τ₁ + a₂/τ₂)/(|a₁|/τ₁ + |a₂|/τ₂) as a check that node 2 is what is sensed.
  */
 import { InputError } from '../errors';
 import type { TransientFit } from '../fit/types';
@@ -69,6 +83,11 @@ export interface LadderInput {
     | { kind: 'pressure'; pressureBeforePa: number; pressureAfterPa: number; upstreamResistance: LevelEstimate };
   /** Pressure at node 1 before the step; default: the fit's start level y∞ + a₁ + a₂ (p₁ is continuous). */
   pressureBefore?: LevelEstimate;
+  /**
+   * Which node the pressure was sensed at: 'inlet' (node 1, the pump side; default) or 'chip' (node 2).
+   * From node 2 only R_b and the τ's are identifiable (header); flow source only.
+   */
+  sensedNode?: 'inlet' | 'chip';
 }
 
 export interface LadderEstimate extends CircuitEstimate {
@@ -123,7 +142,67 @@ function solveLadder(
   return { c1, c2: r3c2 / r3, r2, r3, tauZ };
 }
 
-/** C1, C2, R2 and R3 of a two-node ladder from a two-term fit of the node-1 pressure (§4.4). */
+const NOT_DETERMINED: PhysicalEstimate = { value: Number.NaN, standardError: Number.NaN, ci95: [Number.NaN, Number.NaN], inconclusive: true };
+
+/** The node-2 reading (header): R_b = Δp∞/ΔQ and the τ's only; C1, C2, R_a not identifiable. */
+function estimateFromChipNode(input: LadderInput, fit: TransientFit): LadderEstimate {
+  const drive = input.drive;
+  if (drive.kind !== 'flow') {
+    throw new InputError(
+      'ladder-chip-node-pressure-driven',
+      'The ladder reading from the chip-node pressure is derived for a flow source only',
+      'Log the pressure at the inlet (pump-side) node, or read the step as one compliant node',
+    );
+  }
+  const fromFit = parameterSetFromFit(fit);
+  const based = withBaseline(fromFit.set, fit, input.pressureBefore);
+  const dof = fit.dof;
+  const dq = drive.flowAfterM3PerS - drive.flowBeforeM3PerS;
+  const r3 = propagate(based.set, (p) => (p('yInf') - based.baseline(p)) / dq, dof);
+  const slow = propagate(based.set, (p) => p(tauName(2)), dof);
+  const fast = propagate(based.set, (p) => p(tauName(1)), dof);
+  const a1 = fit.terms[0]?.amplitude.value ?? Number.NaN;
+  const a2 = fit.terms[1]?.amplitude.value ?? Number.NaN;
+  const t1 = fit.terms[0]?.tauS.value ?? Number.NaN;
+  const t2 = fit.terms[1]?.tauS.value ?? Number.NaN;
+  const slopeResidual = (a1 / t1 + a2 / t2) / (Math.abs(a1) / t1 + Math.abs(a2) / t2);
+  const warnings = [...fromFit.warnings, ...fitQualityWarnings(fit)];
+  warnings.push({
+    code: 'ladder-needs-inlet-pressure',
+    message:
+      'The pressure was sensed at the chip node (node 2): its response R_b/(1 + s(τ₁+τ₂) + s²τ₁τ₂) gives only R_b (node 2 to the outlet) and the two τ\'s; C1, C2 and R_a cannot be separated (3 observables, 4 unknowns; docs/setups.md §4). Log the pressure at the pump-side node for C1, C2, R_a.',
+  });
+  if (!(Math.abs(slopeResidual) < 0.5)) {
+    warnings.push({
+      code: 'ladder-inconsistent',
+      message: `A chip-node response starts with zero slope (a₁/τ₁ + a₂/τ₂ = 0), but this fit's relative initial slope is ${slopeResidual.toFixed(2)}: the pressure may not be sensed at node 2.`,
+    });
+  }
+  warnings.push(...inconclusiveWarning('R_b (node 2 to the outlet)', r3));
+  return {
+    setup: 'ladder-flow-driven',
+    resistancePaSPerM3: r3,
+    complianceM3PerPa: null,
+    tauS: slow,
+    tauTermIndex: 2,
+    node1ComplianceM3PerPa: NOT_DETERMINED,
+    node2ComplianceM3PerPa: NOT_DETERMINED,
+    resistanceBetweenNodesPaSPerM3: NOT_DETERMINED,
+    outletResistancePaSPerM3: r3,
+    fastTauS: fast,
+    zeroTauS: NOT_DETERMINED,
+    notes: [
+      'Pressure sensed at the chip node (node 2): R = R_b = Δp∞/ΔQ only (not R_a + R_b); C is not identifiable from this node.',
+      `Zero-slope check a₁/τ₁ + a₂/τ₂ relative to its terms: ${Number.isFinite(slopeResidual) ? slopeResidual.toFixed(3) : 'n/a'} (0 for a node-2 response).`,
+    ],
+    warnings,
+  };
+}
+
+/**
+ * C1, C2, R2 and R3 of a two-node ladder from a two-term fit of the node-1 pressure (§4.4);
+ * from the node-2 (chip) pressure only R3 and the τ's (`sensedNode: 'chip'`, header).
+ */
 export function estimateLadder(input: LadderInput): LadderEstimate {
   const fit = input.pressureFit;
   if (fit.terms.length !== 2) {
@@ -133,6 +212,7 @@ export function estimateLadder(input: LadderInput): LadderEstimate {
       'Fit this step with terms = 2',
     );
   }
+  if (input.sensedNode === 'chip') return estimateFromChipNode(input, fit);
   const fromFit = parameterSetFromFit(fit);
   const based = withBaseline(fromFit.set, fit, input.pressureBefore);
   let set = based.set;

@@ -54,14 +54,34 @@ export function fitQualityWarnings(fit: TransientFit): Warning[] {
   return out;
 }
 
-/** Adds a warning when an estimate is not significantly determined. */
+/** Adds a warning when an estimate is not significantly determined; a value ≤ 0 is reported as `non-physical` (not as a wide CI). */
 export function inconclusiveWarning(what: string, estimate: PhysicalEstimate | null): Warning[] {
   if (estimate === null || !estimate.inconclusive) return [];
+  const nonPhysical = nonPhysicalWarning(what, estimate);
+  if (nonPhysical.length > 0) return nonPhysical;
   const [lo, hi] = estimate.ci95;
   return [
     {
       code: 'inconclusive',
       message: `${what} is not significantly determined (95 % CI ${lo.toPrecision(3)} to ${hi.toPrecision(3)} includes 0 or spans more than a factor of 10): inconclusive.`,
+    },
+  ];
+}
+
+/**
+ * A resistance or compliance that came out ≤ 0 (or not finite) is physically impossible: the model
+ * does not fit the step, however tight its CI. Marks the estimate inconclusive and returns a
+ * `non-physical` warning (empty when the value is positive).
+ */
+export function nonPhysicalWarning(what: string, estimate: PhysicalEstimate | null): Warning[] {
+  if (estimate === null || Number.isNaN(estimate.value) || estimate.value > 0) return [];
+  estimate.inconclusive = true;
+  const [lo, hi] = estimate.ci95;
+  const sign = estimate.value < 0 ? 'negative' : estimate.value === 0 ? 'zero' : 'not finite';
+  return [
+    {
+      code: 'non-physical',
+      message: `${what} came out ${sign} (${estimate.value.toPrecision(3)}, 95 % CI ${lo.toPrecision(3)} to ${hi.toPrecision(3)}): physically impossible, so the model does not fit this step; inconclusive.`,
     },
   ];
 }

@@ -38,6 +38,12 @@ export interface BuildOptions {
   operatingPressurePa?: number;
   /** 'one' (default): all counted compliance at one node, as predictNominal lumps it; 'two': upstream and chip apart. */
   nodes?: 'one' | 'two';
+  /**
+   * With two nodes, which node the pressure sensor reads: 'inlet' (default: the pump-side compliant node,
+   * where a flow-driven user's sensor normally sits, physics.md §4.2) or 'chip' (the chip node). The ladder
+   * inverse of `estimateLadder` needs the inlet (node-1) pressure; docs/setups.md §4.
+   */
+  pressureAt?: 'inlet' | 'chip';
 }
 
 export interface BuiltNetwork {
@@ -48,6 +54,8 @@ export interface BuiltNetwork {
   nominal: NominalPrediction;
   /** Where a pressure sensor and a flow sensor look by default. */
   pressureTarget: Probe['target'];
+  /** The node the pressure sensor reads: 'node' (one node, or two with pressureAt 'chip') or 'inlet'. */
+  sensedNodeId: string;
   flowTarget: Probe['target'];
   /** Inlet flow (pressure-driven: through R_up; flow-driven: the pump). */
   inletFlowTarget: Probe['target'];
@@ -125,12 +133,18 @@ export function buildNetwork(chip: ChipDescription, setup: Setup, options: Build
       );
     } else network.resistors.unshift({ id: IDS.upstream, from: IDS.regulator, to: IDS.node, resistancePaSPerM3: rUp });
   }
+  const pressureAt = options.pressureAt ?? 'inlet';
+  if (pressureAt !== 'inlet' && pressureAt !== 'chip') {
+    throw new InputError('bad-pressure-at', `unknown sensed node '${String(pressureAt)}'`, 'use inlet or chip');
+  }
+  const sensedNodeId = two && pressureAt === 'inlet' ? IDS.inlet : IDS.node;
   return {
     network,
     setup,
     drive: setup === 'flow-driven' ? 'flow' : 'pressure',
     nominal,
-    pressureTarget: { kind: 'node', id: IDS.node },
+    pressureTarget: { kind: 'node', id: sensedNodeId },
+    sensedNodeId,
     flowTarget: { kind: 'resistor', id: IDS.downstream },
     inletFlowTarget: setup === 'flow-driven' ? { kind: 'source', id: IDS.pump } : { kind: 'resistor', id: two ? IDS.supply : IDS.upstream },
     linearComplianceM3PerPa: cLin + cUp,

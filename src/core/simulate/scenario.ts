@@ -81,6 +81,8 @@ export interface ScenarioTruth {
   chip: { file: string; name: string };
   setup: Setup;
   seed: number;
+  /** Node the logged pressure is read at: 'node' (one node) or, with two nodes, 'inlet' (pump side) or 'chip'. */
+  pressure_at: 'node' | 'inlet' | 'chip';
   ambient_pressure_Pa: number;
   operating_pressure_Pa: number;
   resistance_Pa_s_per_m3: { upstream: number; downstream: number; total: number; thevenin: number };
@@ -113,11 +115,11 @@ const sorted = (a: number, b: number): [number, number] => (a <= b ? [a, b] : [b
 const DEFAULT_START_MS = Date.UTC(2026, 2, 2, 9, 0, 0);
 
 /** Steady pressures (every node, and the sensed node as p) and outlet flow at a constant drive. */
-function steadyAt(net: Network, drive: string, quantity: 'flow' | 'pressure', value: number): { p: number; q: number; all: Record<string, number> } {
+function steadyAt(net: Network, drive: string, quantity: 'flow' | 'pressure', value: number, sensedNodeId: string): { p: number; q: number; all: Record<string, number> } {
   const res = simulate(net, { channels: [{ name: drive, quantity, points: [{ timeS: 0, valueSI: value, rampS: 0 }] }] }, { timesS: Float64Array.of(0) });
   const all: Record<string, number> = {};
   for (const [id, v] of Object.entries(res.nodePressurePa)) all[id] = v[0] as number;
-  return { p: all[IDS.node] as number, q: (res.resistorFlowM3PerS[IDS.downstream] as Float64Array)[0] as number, all };
+  return { p: all[sensedNodeId] as number, q: (res.resistorFlowM3PerS[IDS.downstream] as Float64Array)[0] as number, all };
 }
 
 /** Sum of the node compliances at the given node pressures, m³/Pa. */
@@ -156,7 +158,7 @@ export function simulateScenario(chip: ChipDescription, program: Program, option
 
   // Spans and per-step truth from the steady states at each drive level.
   const levels = drive.points.map((p) => p.valueSI);
-  const steady = levels.map((v) => steadyAt(net, built.drive, drive.quantity, v));
+  const steady = levels.map((v) => steadyAt(net, built.drive, drive.quantity, v, built.sensedNodeId));
   const pSpan = Math.max(...steady.map((s) => Math.abs(s.p)));
   const qSpan = Math.max(...steady.map((s) => Math.abs(s.q)), ...(options.setup === 'flow-driven' ? levels.map(Math.abs) : []));
   const rUp = nominal.resistance.upstreamPaSPerM3.nominal;
@@ -178,7 +180,8 @@ export function simulateScenario(chip: ChipDescription, program: Program, option
       compliance_m3_per_Pa: totalCompliance(net, mean),
       compliance_range_m3_per_Pa: sorted(totalCompliance(net, before.all), totalCompliance(net, after.all)),
       tau_range_s: sorted(timeConstantsAt(net, [built.drive], before.all)[0] ?? 0, timeConstantsAt(net, [built.drive], after.all)[0] ?? 0),
-      resistance_identified_Pa_s_per_m3: options.setup === 'flow-driven' ? rDown : rUp + rDown,
+      // Flow-driven: Δp∞/ΔQ at the sensed node is the resistance downstream of it (R_up + R_down from the inlet node).
+      resistance_identified_Pa_s_per_m3: options.setup === 'flow-driven' ? (built.sensedNodeId === IDS.inlet ? rUp + rDown : rDown) : rUp + rDown,
     };
   });
   const tauOp = timeConstantsAt(net, [built.drive], Object.fromEntries(net.nodes.map((n) => [n.id, pOp])));
@@ -212,6 +215,7 @@ export function simulateScenario(chip: ChipDescription, program: Program, option
     chip: { file: chip.fileName, name: chip.name },
     setup: options.setup,
     seed: options.seed,
+    pressure_at: net.nodes.length < 2 ? 'node' : built.sensedNodeId === IDS.inlet ? 'inlet' : 'chip',
     ambient_pressure_Pa: nominal.ambientPressurePa,
     operating_pressure_Pa: pOp,
     resistance_Pa_s_per_m3: { upstream: rUp, downstream: rDown, total: nominal.resistance.totalPaSPerM3.nominal, thevenin: nominal.resistance.theveninPaSPerM3.nominal },
