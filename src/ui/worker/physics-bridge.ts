@@ -4,6 +4,7 @@
  * breakdown (src/core/nominal) and the pressure fingerprint line (src/core/bubbles) for the plot.
  * This file only maps core results to the view models.
  */
+import { combineEstimates } from '../../core/qc/combine';
 import { InputError, type Warning } from '../../core/errors';
 import type { AnalysisJson } from '../../core/analyze/types';
 import { addPhysics, STANDARD_ATMOSPHERE_PA, type AnalysisWithPhysicsJson } from '../../core/analyze/physics';
@@ -107,16 +108,12 @@ export function runPhysics(analysis: AnalysisJson, recording: Recording, setup: 
     };
   });
 
-  // Pooled C over conclusive steps (inverse-variance weights), for the fitted-vs-nominal bar.
-  let sw = 0;
-  let swx = 0;
-  for (const s of steps) {
-    if (!s.compliance || s.compliance.inconclusive || !s.complianceSe) continue;
-    sw += 1 / s.complianceSe ** 2;
-    swx += s.compliance.value / s.complianceSe ** 2;
-  }
-  // 1.959964: 97.5 % quantile of the standard normal (Abramowitz & Stegun 1964, table 26.1).
-  const pooled = sw > 0 ? { value: swx / sw, ci95: [swx / sw - 1.959964 / Math.sqrt(sw), swx / sw + 1.959964 / Math.sqrt(sw)] as [number, number] } : null;
+  // Pooled C over conclusive steps for the fitted-vs-nominal bar: the same inverse-variance mean, widened by
+  // the Birge ratio when the steps scatter (a gas compliance changes with pressure), that QC uses.
+  const combined = combineEstimates(
+    steps.flatMap((s) => (s.compliance && !s.compliance.inconclusive && s.complianceSe ? [{ value: s.compliance.value, standardError: s.complianceSe, ci95: s.compliance.ci95 }] : [])),
+  );
+  const pooled = combined && combined.ci95 ? { value: combined.value, ci95: combined.ci95 } : null;
 
   // The fingerprint line for the plot (the same core fit the physics stage makes).
   const points = steps.flatMap((s, i) => (s.compliance && s.pressureAbsPa !== null ? [{ i, c: s.compliance, se: s.complianceSe, p: s.pressureAbsPa }] : []));
