@@ -69,14 +69,17 @@ export function inconclusiveWarning(what: string, estimate: PhysicalEstimate | n
 }
 
 /**
- * A resistance or compliance that came out ≤ 0 (or not finite) is physically impossible: the model
- * does not fit the step, however tight its CI. Marks the estimate inconclusive and returns a
+ * A resistance or compliance that came out ≤ 0 with its whole 95 % CI ≤ 0 (or no CI) is physically
+ * impossible: the model does not fit the step (a tight CI does not make it meaningful). Marks the estimate inconclusive and returns a
  * `non-physical` warning (empty when the value is positive).
  */
 export function nonPhysicalWarning(what: string, estimate: PhysicalEstimate | null): Warning[] {
   if (estimate === null || Number.isNaN(estimate.value) || estimate.value > 0) return [];
-  estimate.inconclusive = true;
   const [lo, hi] = estimate.ci95;
+  // A negative value whose CI reaches positive values is merely undetermined (the wide-CI message says so);
+  // only a CI entirely ≤ 0 (or none) says the model itself does not fit.
+  if (hi > 0) return [];
+  estimate.inconclusive = true;
   const sign = estimate.value < 0 ? 'negative' : estimate.value === 0 ? 'zero' : 'not finite';
   return [
     {

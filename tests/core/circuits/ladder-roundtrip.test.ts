@@ -94,7 +94,7 @@ describe('ladder round trip (simulateScenario nodes two → analyzeRecording + a
     for (const step of analysis.steps) {
       expect(step.compliance_m3_per_Pa).toBeNull();
       const [lo, hi] = step.resistance_ci95!;
-      if (lo <= truth.rb && truth.rb <= hi) inside++;
+      if (lo !== null && hi !== null && lo <= truth.rb && truth.rb <= hi) inside++;
       // The chip-node pressure settles at Q·R_b (physics.md §4.4, flow source: p2_inf = Q0 R3), not Q·(R_a + R_b).
       expect(step.resistance_Pa_s_per_m3! / truth.rb).toBeCloseTo(1, 1);
       expect(step.warnings.some((w) => w.code === 'ladder-needs-inlet-pressure')).toBe(true);
