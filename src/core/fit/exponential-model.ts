@@ -26,6 +26,24 @@ export interface ModelShape {
   drift: boolean;
 }
 
+/** Samples per block of the exp recurrence on uniformly sampled windows. */
+const EXP_BLOCK = 32;
+
+/**
+ * The sample interval of `t` when every t_i equals t_0 + i·h to within 2 ulp of the largest |t|, else NaN
+ * (then each exp is evaluated directly). Uniform sampling lets the model reuse exp(−h/τ)^j within a block.
+ */
+export function uniformSampleStep(t: Float64Array): number {
+  const n = t.length;
+  if (n < 2 * EXP_BLOCK) return NaN;
+  const t0 = t[0]!;
+  const h = (t[n - 1]! - t0) / (n - 1);
+  if (!(h > 0)) return NaN;
+  const tolerance = 2 * Number.EPSILON * Math.max(Math.abs(t0), Math.abs(t[n - 1]!));
+  for (let i = 1; i < n; i++) if (!(Math.abs(t[i]! - (t0 + i * h)) <= tolerance)) return NaN;
+  return h;
+}
+
 /** Number of linear parameters per window. */
 export function linearPerWindow(shape: ModelShape): number {
   return 1 + shape.terms + (shape.drift ? 1 : 0);
@@ -69,6 +87,9 @@ export function exponentialProblem(
   });
   const nW = windows.length;
   const q = qw * nW;
+  // Per window: its sample interval when the sampling is uniform to rounding (else NaN), for the exp recurrence.
+  const uniformStep = windows.map((w) => uniformSampleStep(w.t));
+  const powers = new Float64Array(EXP_BLOCK);
   // Cache of the exponential columns E (n × terms) for the last α.
   const e = new Float64Array(n * terms);
   const lastAlpha = new Float64Array(nonlinearCount(shape)).fill(NaN);
@@ -85,9 +106,28 @@ export function exponentialProblem(
       taus[k] = tau;
       const inv = 1 / tau;
       const ck = k * n;
-      for (let i = 0; i < n; i++) {
-        const s = t[i]! - td;
-        e[ck + i] = s > 0 ? Math.exp(-s * inv) : 1;
+      for (let w = 0; w < nW; w++) {
+        const i0 = offsets[w]!;
+        const i1 = i0 + windows[w]!.t.length;
+        const h = uniformStep[w]!;
+        if (Number.isNaN(h)) {
+          for (let i = i0; i < i1; i++) {
+            const s = t[i]! - td;
+            e[ck + i] = s > 0 ? Math.exp(-s * inv) : 1;
+          }
+          continue;
+        }
+        // Uniform sampling: exp(−s_{b+j}/τ) = exp(−s_b/τ)·exp(−j·h/τ), one exp per block of EXP_BLOCK samples plus
+        // EXP_BLOCK powers per τ instead of one exp per sample. Each value is a product of two correctly rounded
+        // exps (no error accumulates across blocks); the sample times deviate from t_b + j·h by ≤ 2 ulp.
+        let i = i0;
+        while (i < i1 && !(t[i]! - td > 0)) e[ck + i++] = 1;
+        for (let j = 0; j < EXP_BLOCK; j++) powers[j] = Math.exp(-(j * h) * inv);
+        for (let b = i; b < i1; b += EXP_BLOCK) {
+          const e0 = Math.exp(-(t[b]! - td) * inv);
+          const end = Math.min(b + EXP_BLOCK, i1);
+          for (let j = b; j < end; j++) e[ck + j] = e0 * powers[j - b]!;
+        }
       }
     }
   };
