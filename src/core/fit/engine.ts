@@ -93,9 +93,10 @@ export function fitShape(windows: ScaledWindow[], shape: ModelShape, opts: Engin
   const weights = new Float64Array(n).fill(1);
   const raw = new Float64Array(n);
   const rowW = plain.rowWeights!;
-  const phi = new Float64Array(n * plain.nLinear);
+  let phi: Float64Array | null = null;
   /** Unweighted residuals model − data of a solution (scaled units). */
   const computeRaw = (res: SeparableResult): void => {
+    phi ??= new Float64Array(n * plain.nLinear);
     plain.basis(res.alpha, phi);
     raw.fill(0);
     for (let j = 0; j < plain.nLinear; j++) {
@@ -105,7 +106,9 @@ export function fitShape(windows: ScaledWindow[], shape: ModelShape, opts: Engin
     }
     for (let i = 0; i < n; i++) raw[i] = raw[i]! - plain.y[i]!;
   };
-  computeRaw(best);
+  // With unit row weights the solver's residuals W(Φc − y) are these, computed in the same order.
+  if (rowW.every((v) => v === 1)) raw.set(best.residuals);
+  else computeRaw(best);
   let iterations = best.iterations + best.projectedStage.iterations;
   let stopReason = best.stopReason;
   if (opts.robust !== 'none') {
