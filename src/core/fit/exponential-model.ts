@@ -72,14 +72,18 @@ export function exponentialProblem(
     offsets.push(n);
     n += w.t.length;
   }
-  const y = new Float64Array(n);
+  // One window: its arrays are used as they are (never modified here), saving two copies.
+  const single = windows.length === 1;
+  const y = single ? windows[0]!.y : new Float64Array(n);
   const rowWeights = new Float64Array(n);
-  const t = new Float64Array(n);
+  const t = single ? windows[0]!.t : new Float64Array(n);
   const windowOf = new Int32Array(n);
   windows.forEach((w, k) => {
     const o = offsets[k]!;
-    y.set(w.y, o);
-    t.set(w.t, o);
+    if (!single) {
+      y.set(w.y, o);
+      t.set(w.t, o);
+    }
     for (let i = 0; i < w.t.length; i++) {
       rowWeights[o + i] = w.weight * (extraRowWeights ? extraRowWeights[o + i]! : 1);
       windowOf[o + i] = k;

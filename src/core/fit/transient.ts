@@ -73,7 +73,8 @@ export function prepareWindow(data: TransientData, noiseSigma?: number): Prepare
   }
   const diffs = new Float64Array(Math.max(0, n - 1));
   for (let i = 1; i < n; i++) diffs[i - 1] = tS[i]! - tS[i - 1]!;
-  const dtS = n > 1 ? median(diffs) : NaN;
+  // The differences are finite (time stamps finite and increasing): select in place, no filtered copy.
+  const dtS = n > 1 ? medianInPlace(diffs, n - 1) : NaN;
   const last = n > 0 ? tS[n - 1]! : 0;
   const timeScaleS = last > 0 ? last : n > 1 ? last - tS[0]! : 1;
   const sigma = noiseSigma ?? (n > 2 ? noiseSigmaFromDifferences(y) : NaN);
