@@ -5,12 +5,12 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import type { BrowserContext, Page } from 'playwright-core';
+import { CHROMIUM, launchChromium } from './browser';
 import { PRESSURE_SAFETY_CAUTION } from '../../src/core/safety';
 import { rendererDir, serveStatic, type StaticServer } from './static-server';
 import { flowDrivenRun } from './synthetic-log';
 
-const CHROMIUM = '/usr/bin/chromium';
 const SHOTS = join(process.cwd(), 'test-artifacts', 'screenshots');
 const haveBrowser = existsSync(CHROMIUM);
 if (!haveBrowser) console.warn(`Browser tests skipped: ${CHROMIUM} is missing (apt-get install -y chromium).`);
@@ -37,24 +37,7 @@ describe.skipIf(!haveBrowser)('desktop renderer in Chromium', () => {
     work = mkdtempSync(join(tmpdir(), 'lagbench-e2e-'));
     writeFileSync(join(work, 'flow-run.csv'), run.text);
     server = await serveStatic(rendererDir);
-    context = await chromium.launchPersistentContext(join(work, 'profile'), {
-      executablePath: CHROMIUM,
-      headless: true,
-      args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-      viewport: { width: 1280, height: 800 },
-      acceptDownloads: true,
-      colorScheme: 'light',
-    });
-    page = context.pages()[0] ?? (await context.newPage());
-    page.on('pageerror', (e) => errors.push(`pageerror: ${e.message}`));
-    page.on('console', (m) => {
-      if (m.type() === 'error') errors.push(`console: ${m.text()}`);
-    });
-    // No request may leave 127.0.0.1 (no remote content).
-    await context.route(/^(?!http:\/\/127\.0\.0\.1|data:|blob:)/, (route) => {
-      errors.push(`remote request: ${route.request().url()}`);
-      return route.abort();
-    });
+    ({ context, page } = await launchChromium(join(work, 'profile'), errors));
     await page.goto(server.url);
     await page.waitForSelector('html[data-ready="true"]');
   });

@@ -7,7 +7,8 @@ import { createHash } from 'node:crypto';
 import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import type { BrowserContext, Page } from 'playwright-core';
+import { CHROMIUM, launchChromium } from './browser';
 import { PRESSURE_SAFETY_CAUTION } from '../../src/core/safety';
 import { parseVary, whatIf } from '../../src/core/whatif';
 import { DEFAULT_QC_STORE, openQcStore, queryHistory } from '../../src/io/qc-store';
@@ -16,7 +17,6 @@ import { captureIo } from '../helpers/cli-io';
 import { serveWithBridge, type BridgeServer } from './bridge-server';
 import { rendererDir, serveStatic, type StaticServer } from './static-server';
 
-const CHROMIUM = '/usr/bin/chromium';
 const SHOTS = join(process.cwd(), 'test-artifacts', 'screenshots');
 const ARTIFACTS = join(process.cwd(), 'test-artifacts');
 const haveBrowser = existsSync(CHROMIUM);
@@ -46,23 +46,7 @@ describe.skipIf(!haveBrowser)('what-if view and QC sign-off in Chromium', () => 
     dbPath = join(work, DEFAULT_QC_STORE);
     bridge = await serveWithBridge(rendererDir, { storePath: dbPath, softwareVersion: '0.1.0', nowIso: () => new Date().toISOString() });
     plain = await serveStatic(rendererDir);
-    context = await chromium.launchPersistentContext(join(work, 'profile'), {
-      executablePath: CHROMIUM,
-      headless: true,
-      args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-      viewport: { width: 1280, height: 800 },
-      acceptDownloads: true,
-      colorScheme: 'light',
-    });
-    page = context.pages()[0] ?? (await context.newPage());
-    page.on('pageerror', (e) => errors.push(`pageerror: ${e.message}`));
-    page.on('console', (m) => {
-      if (m.type() === 'error') errors.push(`console: ${m.text()}`);
-    });
-    await context.route(/^(?!http:\/\/127\.0\.0\.1|data:|blob:)/, (route) => {
-      errors.push(`remote request: ${route.request().url()}`);
-      return route.abort();
-    });
+    ({ context, page } = await launchChromium(join(work, 'profile'), errors));
     await page.goto(bridge.url);
     await page.waitForSelector('html[data-ready="true"]');
   });
