@@ -5,6 +5,7 @@
  */
 import type { QcApi, QcChannel, QcInfo } from '../../../electron/ipc';
 import { QC_CHANNELS } from '../../../electron/ipc';
+import { downloadText } from './download';
 
 export const NO_BRIDGE_REASON =
   'Sign-off records are kept in the SQLite record store, which this browser page cannot reach. Use the desktop app (npm start) or `lagbench qc` on the command line; limits and verdicts below are still computed here.';
@@ -14,19 +15,6 @@ async function post<T>(channel: QcChannel, args: unknown[]): Promise<T> {
   const body = (await res.json()) as { result?: T; error?: string };
   if (!res.ok || body.error !== undefined) throw new Error(body.error ?? `bridge answered ${res.status}`);
   return body.result as T;
-}
-
-function downloadText(name: string, text: string, mime: string): { path: string } {
-  const url = URL.createObjectURL(new Blob([text], { type: mime }));
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = name;
-  a.hidden = true;
-  document.body.append(a);
-  a.click();
-  a.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 60_000);
-  return { path: name };
 }
 
 export function createBridgeQcApi(): QcApi {

@@ -4,9 +4,10 @@
  * downloads instead of save dialogs. Paths are file names here; recent files are not kept (a browser
  * cannot re-read a file without the user choosing it again).
  */
-import type { LagbenchApi, LoadedFile, MenuEvent, RecentEntry, SaveResult } from '../../../electron/ipc';
+import type { LagbenchApi, LoadedFile, MenuEvent, RecentEntry } from '../../../electron/ipc';
 import { MAX_LOGS } from '../../../electron/ipc';
 import { createBridgeQcApi } from './bridge-qc-api';
+import { downloadText } from './download';
 
 async function toLoaded(file: File): Promise<LoadedFile> {
   return { path: file.name, name: file.name, bytes: new Uint8Array(await file.arrayBuffer()) };
@@ -25,19 +26,6 @@ function fileInput(id: string, accept: string, multiple: boolean): HTMLInputElem
   input.setAttribute('aria-hidden', 'true');
   document.body.append(input);
   return input;
-}
-
-function download(name: string, text: string, mime: string): SaveResult {
-  const url = URL.createObjectURL(new Blob([text], { type: mime }));
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = name;
-  a.hidden = true;
-  document.body.append(a);
-  a.click();
-  a.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 60_000);
-  return { path: name };
 }
 
 export function createBrowserApi(): LagbenchApi {
@@ -90,10 +78,10 @@ export function createBrowserApi(): LagbenchApi {
       return (await pick('chip'))?.[0] ?? null;
     },
     async saveWork(name: string, json: string) {
-      return download(name.endsWith('.json') ? name : `${name}.json`, json, 'application/json');
+      return downloadText(name.endsWith('.json') ? name : `${name}.json`, json, 'application/json');
     },
     async saveReport(name: string, html: string) {
-      return download(name.endsWith('.html') ? name : `${name}.html`, html, 'text/html');
+      return downloadText(name.endsWith('.html') ? name : `${name}.html`, html, 'text/html');
     },
     async listRecent(): Promise<RecentEntry[]> {
       return [];
