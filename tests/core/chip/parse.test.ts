@@ -3,16 +3,11 @@ import { describe, expect, it } from 'vitest';
 import { InputError } from '../../../src/core/errors';
 import { ChipDescriptionError, parseChipDescription } from '../../../src/core/chip/parse';
 import { parseLocatedJson } from '../../../src/core/json/located-json';
+import { inputErrorOf } from '../../helpers/error-of';
 
 /** Runs the parser and returns the error it throws (fails the test when none). */
 function errorOf(text: string): InputError {
-  try {
-    parseChipDescription(text, 'chip.json');
-  } catch (e) {
-    if (e instanceof InputError) return e;
-    throw e;
-  }
-  throw new Error('expected an InputError');
+  return inputErrorOf(() => parseChipDescription(text, 'chip.json'));
 }
 
 const valid = `{

@@ -4,6 +4,7 @@ import { join } from 'node:path';
 import { InputError } from '../../../src/core/errors';
 import { parseJsonLocated } from '../../../src/core/qc/json-locate';
 import { parseQcSpec } from '../../../src/core/qc/spec';
+import { inputErrorOf } from '../../helpers/error-of';
 
 const minimal = (limits: string, extra = ''): string => `{
   "lagbench_qc_spec": 1,
@@ -12,15 +13,7 @@ const minimal = (limits: string, extra = ''): string => `{
   "limits": ${limits}${extra}
 }`;
 
-function errorOf(fn: () => unknown): InputError {
-  try {
-    fn();
-  } catch (e) {
-    if (e instanceof InputError) return e;
-    throw e;
-  }
-  throw new Error('expected an InputError');
-}
+const errorOf = inputErrorOf;
 
 describe('parseJsonLocated', () => {
   it('parseJsonLocated(trailing comma) throws at the line:column of the closing brace', () => {

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { InputError } from '../../../src/core/errors';
 import { simulate } from '../../../src/core/simulate/simulate';
 import type { Network, Program } from '../../../src/core/simulate/types';
+import { inputErrorOf } from '../../helpers/error-of';
 
 const base: Network = {
   nodes: [{ id: 'n', complianceM3PerPa: 1e-13 }],
@@ -13,15 +13,7 @@ const base: Network = {
 };
 const prog: Program = { channels: [{ name: 'flow', quantity: 'flow', points: [{ timeS: 0, valueSI: 1e-10, rampS: 0 }] }] };
 
-function errorOf(f: () => unknown): InputError {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof InputError) return e;
-    throw e;
-  }
-  throw new Error('no error thrown');
-}
+const errorOf = inputErrorOf;
 
 // The refusals and their wording are rules of our own (DEVELOPERS.md: InputError says what and where);
 // numbers here are test inputs, not reference values.

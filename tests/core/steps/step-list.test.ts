@@ -5,17 +5,9 @@
 import { describe, expect, it } from 'vitest';
 import { parseStepList } from '../../../src/core/steps/step-list';
 import { rampsFromProgram, stepsFromProgram } from '../../../src/core/steps/program';
-import { InputError } from '../../../src/core/errors';
+import { inputErrorOf } from '../../helpers/error-of';
 
-function errorOf(fn: () => unknown): InputError {
-  try {
-    fn();
-  } catch (e) {
-    if (e instanceof InputError) return e;
-    throw e;
-  }
-  throw new Error('expected an InputError');
-}
+const errorOf = inputErrorOf;
 
 describe('parseStepList', () => {
   it('parseStepList(flow_setpoint[uL/min]) converts to m³/s and skips comments and blank lines', () => {
